@@ -1,0 +1,201 @@
+"""Quantities with units at the edges: parse once into SI floats.
+
+Everything inside micromech is SI (Pa, m, K, kg/m^3, 1/K, N/m). Strings such as ``"72 GPa"``,
+``"7 um"``, ``"2.54 g/cm^3"``, ``"-0.5e-6 1/K"`` or ``"100 N/mm"`` are accepted in files, at the
+CLI and in constructors, and converted here. Bare numbers mean SI already.
+
+The pint registry is created on first use only, so importing this module is cheap.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+from typing import TYPE_CHECKING, Any
+
+from micromech.errors import UnitError
+
+if TYPE_CHECKING:  # pragma: no cover
+    import pint
+
+__all__ = ["DIMENSIONS", "parse_quantity", "to_si", "format_si"]
+
+#: Physical kinds a field may expect, with the pint dimensionality and the SI unit.
+DIMENSIONS: dict[str, tuple[str, str]] = {
+    "pressure": ("[mass] / [length] / [time] ** 2", "Pa"),
+    "length": ("[length]", "m"),
+    "area": ("[length] ** 2", "m^2"),
+    "force": ("[mass] * [length] / [time] ** 2", "N"),
+    "force_per_length": ("[mass] / [time] ** 2", "N/m"),
+    "moment_per_length": ("[mass] * [length] / [time] ** 2", "N"),
+    "density": ("[mass] / [length] ** 3", "kg/m^3"),
+    "expansion": ("1 / [temperature]", "1/K"),
+    "temperature_change": ("[temperature]", "K"),
+    "energy_per_volume": ("[mass] / [length] / [time] ** 2", "J/m^3"),
+    "dimensionless": ("", ""),
+}
+
+_PLAIN_WORDS = {
+    "pressure": "a pressure (e.g. '72 GPa')",
+    "length": "a length (e.g. '7 um')",
+    "area": "an area (e.g. '1 mm^2')",
+    "force": "a force (e.g. '10 N')",
+    "force_per_length": "a force per length (e.g. '100 N/mm')",
+    "moment_per_length": "a moment per length (e.g. '5 N*mm/mm')",
+    "density": "a density (e.g. '2.54 g/cm^3')",
+    "expansion": "a thermal expansion coefficient (e.g. '5e-6 1/K')",
+    "temperature_change": "a temperature change (e.g. '-100 K')",
+    "energy_per_volume": "an energy per volume (e.g. '1 MJ/m^3')",
+    "dimensionless": "a plain number",
+}
+
+
+@lru_cache(maxsize=1)
+def _registry() -> pint.UnitRegistry:
+    import pint
+
+    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+    return ureg
+
+
+def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
+    """Convert a number or a quantity string to an SI float of the expected kind.
+
+    Parameters
+    ----------
+    value : float or str
+        A bare number (taken as SI) or a string with a unit, such as ``"72 GPa"``.
+    kind : str
+        One of the keys of :data:`DIMENSIONS` (``"pressure"``, ``"length"``, ...).
+    field : str
+        Name of the field, used in error messages.
+
+    Returns
+    -------
+    float
+        The value in SI units.
+
+    Raises
+    ------
+    UnitError
+        If the string cannot be parsed or its dimension is not the expected one.
+
+    Examples
+    --------
+    >>> parse_quantity("72 GPa", "pressure", "E")
+    72000000000.0
+    >>> parse_quantity(7e-6, "length")
+    7e-06
+    """
+    if kind not in DIMENSIONS:
+        raise UnitError(f"{field}: unknown quantity kind {kind!r}; expected one of {sorted(DIMENSIONS)}")
+    if isinstance(value, bool):
+        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r}")
+    if isinstance(value, int | float):
+        return float(value)
+    if not isinstance(value, str):
+        try:
+            return float(value)
+        except (TypeError, ValueError):
+            raise UnitError(
+                f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r} of type {type(value).__name__}"
+            ) from None
+    text = value.strip()
+    try:
+        return float(text)
+    except ValueError:
+        pass
+    return _parse_string(text, kind, field)
+
+
+def _parse_string(text: str, kind: str, field: str) -> float:
+    import pint
+
+    ureg = _registry()
+    try:
+        q = ureg.Quantity(text.replace("µ", "u"))
+    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
+        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}: {exc}") from None
+    dim_expected, si_unit = DIMENSIONS[kind]
+    expected = ureg.Quantity(1, si_unit).dimensionality if si_unit else ureg.Quantity(1).dimensionality
+    if not hasattr(q, "dimensionality") or q.dimensionality != expected:
+        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}")
+    mag = q.to(si_unit).magnitude if si_unit else q.to("dimensionless").magnitude
+    return float(mag)
+
+
+def to_si(value: Any, unit: str, field: str = "value") -> float:
+    """Convert a number given in ``unit`` (e.g. ``"mm"``) to SI.
+
+    Parameters
+    ----------
+    value : float
+        The magnitude.
+    unit : str
+        The unit the magnitude is expressed in.
+    field : str
+        Name of the field, used in error messages.
+
+    Returns
+    -------
+    float
+        The factor-converted value in SI base units.
+    """
+    return float(value) * unit_factor(unit, field)
+
+
+@lru_cache(maxsize=256)
+def unit_factor(unit: str, field: str = "unit") -> float:
+    """Return the factor that converts a magnitude in ``unit`` to SI base units.
+
+    Parameters
+    ----------
+    unit : str
+        A unit string such as ``"kN"``, ``"um"`` or ``"MPa"``.
+    field : str
+        Name of the field, used in error messages.
+
+    Returns
+    -------
+    float
+        Multiply a magnitude in ``unit`` by this factor to get SI.
+    """
+    import pint
+
+    ureg = _registry()
+    try:
+        q = ureg.Quantity(1.0, unit.replace("µ", "u"))
+    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
+        raise UnitError(f"{field}: unknown unit {unit!r}: {exc}") from None
+    return float(q.to_base_units().magnitude)
+
+
+def format_si(value: float, kind: str) -> str:
+    """Format an SI float for a table with an engineering unit (GPa, MPa, um, ...).
+
+    Parameters
+    ----------
+    value : float
+        The SI value.
+    kind : str
+        The quantity kind (see :data:`DIMENSIONS`).
+
+    Returns
+    -------
+    str
+        Text such as ``"72.0 GPa"``.
+    """
+    if value is None:
+        return "-"
+    if kind == "pressure":
+        if abs(value) >= 1e9:
+            return f"{value / 1e9:.4g} GPa"
+        return f"{value / 1e6:.4g} MPa"
+    if kind == "length":
+        if abs(value) < 1e-3:
+            return f"{value * 1e6:.4g} um"
+        return f"{value * 1e3:.4g} mm"
+    if kind == "density":
+        return f"{value / 1e3:.4g} g/cm^3"
+    if kind == "expansion":
+        return f"{value * 1e6:.4g} 1e-6/K"
+    return f"{value:.4g}"
