@@ -3,6 +3,7 @@
 Public API re-exports only.
 """
 
+from micromech.case import load_case
 from micromech.errors import (
     CaseFileError,
     DataFileError,
@@ -13,19 +14,42 @@ from micromech.errors import (
     RegistryError,
     UnitError,
 )
+from micromech.materials import (
+    Composite,
+    Isotropic,
+    Material,
+    Orthotropic,
+    Registry,
+    Strengths,
+    TransverselyIsotropic,
+    get_material,
+    list_materials,
+    load_material,
+)
 from micromech.results import ElasticConstants
 from micromech.units import parse_quantity
 
 __all__ = [
     "CaseFileError",
+    "Composite",
     "DataFileError",
     "ElasticConstants",
     "FractionError",
     "InputError",
     "InvalidMaterialError",
+    "Isotropic",
+    "Material",
     "MicromechError",
+    "Orthotropic",
+    "Registry",
     "RegistryError",
+    "Strengths",
+    "TransverselyIsotropic",
     "UnitError",
+    "get_material",
+    "list_materials",
+    "load_case",
+    "load_material",
     "parse_quantity",
 ]
 

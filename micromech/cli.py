@@ -72,14 +72,323 @@ def cli() -> None:
 
 # --- materials (registry) -------------------------------------------------------------------
 
+_MATERIALS_CAUTION = (
+    "Typical values, not design allowables: qualified test data, the applicable codes and a "
+    "licensed engineer decide."
+)
+
+# field -> (quantity kind for format_si, unit label for the detail view)
+_MATERIAL_FIELDS: tuple[tuple[str, str], ...] = (
+    ("E", "pressure"), ("G", "pressure"), ("nu", "dimensionless"), ("alpha", "expansion"),
+    ("E1", "pressure"), ("E2", "pressure"), ("E3", "pressure"), ("G12", "pressure"),
+    ("G13", "pressure"), ("G23", "pressure"), ("nu12", "dimensionless"),
+    ("nu13", "dimensionless"), ("nu23", "dimensionless"), ("alpha1", "expansion"),
+    ("alpha2", "expansion"), ("alpha3", "expansion"), ("density", "density"),
+    ("fibre_diameter", "length"),
+)
+
+
+def _material_json(m: Any, registry: Any) -> dict[str, Any]:
+    data = m.model_dump()
+    data["file"] = str(registry.source_file(m.key)) if m.key in registry else None
+    return data
+
+
+@cli.command("materials")
+@click.argument("key", required=False)
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option(
+    "--registry", "paths", multiple=True, type=click.Path(exists=True),
+    help="Extra registry file or folder (repeatable); MICROMECH_MATERIALS is also read.",
+)
+def materials_command(key: str | None, as_json: bool, paths: tuple[str, ...]) -> None:
+    """List the materials registry, or show one material (KEY) with units and sources."""
+    from micromech.materials import Registry
+    from micromech.units import format_si
+
+    reg = Registry(paths)
+    if key is None:
+        mats = [reg[k] for k in reg]
+        if as_json:
+            emit_json({"materials": [_material_json(m, reg) for m in mats],
+                       "caution": _MATERIALS_CAUTION})
+            return
+        head = (f"{'key':<22}{'kind':<24}{'role':<10}{'E1 GPa':>8}{'E2 GPa':>8}{'G12 GPa':>9}"
+                f"{'nu12':>7}{'density g/cm^3':>16}")
+        click.echo(head)
+        click.echo("-" * len(head))
+        for m in mats:
+            rho = "-" if m.density is None else f"{m.density / 1e3:.3g}"
+            click.echo(
+                f"{m.key:<22}{m.kind:<24}{m.role or '-':<10}{m.E1 / 1e9:>8.4g}{m.E2 / 1e9:>8.4g}"
+                f"{m.G12 / 1e9:>9.4g}{m.nu12:>7.3g}{rho:>16}"
+            )
+        click.echo(f"\n{len(mats)} materials. {_MATERIALS_CAUTION}")
+        return
+    m = reg[key]
+    if as_json:
+        emit_json({"material": _material_json(m, reg), "caution": _MATERIALS_CAUTION})
+        return
+    click.echo(f"{m.key}: {m.name}")
+    click.echo(f"  kind: {m.kind}    role: {m.role or '-'}")
+    click.echo(f"  file: {reg.source_file(m.key)}")
+    click.echo(f"  source: {m.source}")
+    given = m.model_fields_set
+    for name, kind in _MATERIAL_FIELDS:
+        if name not in type(m).model_fields:
+            continue
+        value = getattr(m, name)
+        if value is None:
+            if name in m.notes:
+                click.echo(f"  {name:<15}{'-':<18}  [{m.notes[name]}]")
+            continue
+        text = format_si(value, kind) if kind != "dimensionless" else f"{value:.4g}"
+        flag = "" if name in given else "  (derived)"
+        note = f"  [{m.notes[name]}]" if name in m.notes else ""
+        click.echo(f"  {name:<15}{text:<18}{flag}{note}")
+    if m.strengths is not None:
+        for name, value in m.strengths.as_dict().items():
+            note = f"  [{m.notes[name]}]" if name in m.notes else ""
+            click.echo(f"  {name:<15}{format_si(value, 'pressure'):<18}{note}")
+    for name, note in m.notes.items():
+        if name not in type(m).model_fields and (m.strengths is None
+                                                 or name not in m.strengths.as_dict()):
+            click.echo(f"  note on {name}: {note}")
+    click.echo(f"\n{_MATERIALS_CAUTION}")
+
 
 # --- estimate (homogenize) ------------------------------------------------------------------
 
 
 # --- laminate -------------------------------------------------------------------------------
 
+_LAMINATE_CRITERIA = ("max_stress", "max_strain", "tsai_hill", "tsai_wu", "hashin")
+
+
+@cli.command("laminate")
+@click.argument("case_file", type=click.Path(dir_okay=False))
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option("--criterion", type=click.Choice(_LAMINATE_CRITERIA), default="tsai_wu",
+              show_default=True, help="Criterion for the critical ply and first/last-ply failure.")
+@click.option("--f12-star", type=float, default=-0.5, show_default=True,
+              help="Tsai-Wu normalised interaction term, in (-1, 1).")
+@click.option("--envelope", "envelope_axes", metavar="A,B",
+              help="First-ply failure envelope in two axes: Nx, Ny, Nxy, Mx, My, Mxy or sx, sy, "
+                   "sxy (average stress), e.g. 'Nx,Ny'.")
+@click.option("--plot", type=click.Path(dir_okay=False),
+              help="Draw the envelope (all criteria) to an image file (Nx,Ny without --envelope).")
+@click.option("--points", type=int, default=361, show_default=True,
+              help="Number of rays of the envelope.")
+def laminate_command(
+    case_file: str, as_json: bool, criterion: str, f12_star: float,
+    envelope_axes: str | None, plot: str | None, points: int,
+) -> None:
+    """ABD, laminate constants, ply stresses and failure for the [laminate] of CASE_FILE."""
+    from micromech.case import load_case
+    from micromech.laminate import analyse_laminate, failure_envelope, laminate_from_case
+    from micromech.report.laminate import laminate_json, laminate_table
+
+    case = load_case(case_file)
+    lam = laminate_from_case(case)
+    spec = case.laminate
+    assert spec is not None  # laminate_from_case raised otherwise
+    analysis = analyse_laminate(lam, spec.loads, criterion=criterion, f12_star=f12_star)
+    envelopes = []
+    if envelope_axes is None and plot is not None:
+        envelope_axes = "Nx,Ny"
+    if envelope_axes is not None:
+        envelopes = [
+            failure_envelope(lam, envelope_axes, c, n_points=points, delta_T=analysis.delta_T,
+                             f12_star=f12_star)
+            for c in _LAMINATE_CRITERIA
+        ]
+    if plot is not None:
+        from micromech.laminate import plot_envelopes
+
+        plot_envelopes(envelopes, plot, title=f"{case.name}: {lam.code}")
+    if as_json:
+        emit_json(laminate_json(analysis, case=case.name, envelopes=envelopes))
+        return
+    click.echo(laminate_table(analysis, case=case.name))
+    if envelopes:
+        from micromech.laminate import ENVELOPE_AXES
+
+        ax = envelopes[0].axes
+        units = {"N/m": (1e-3, "N/mm"), "N": (1.0, "N*m/m"), "Pa": (1e-6, "MPa")}
+        (fx, ux), (fy, uy) = (units[ENVELOPE_AXES[a]] for a in ax)
+        click.echo(f"\nFirst-ply failure envelope in {ax[0]} ({ux}), {ax[1]} ({uy}): "
+                   "intercepts on the axes")
+        click.echo(f"  {'criterion':<12}{'+' + ax[0]:>12}{'-' + ax[0]:>12}{'+' + ax[1]:>12}"
+                   f"{'-' + ax[1]:>12}")
+        for e in envelopes:
+            n = len(e.phi) - 1
+            idx = [0, n // 2, n // 4, 3 * n // 4] if n % 4 == 0 else None
+            if idx is None:
+                vals = ["-"] * 4
+            else:
+                raw = [e.x[idx[0]] * fx, e.x[idx[1]] * fx, e.y[idx[2]] * fy, e.y[idx[3]] * fy]
+                vals = [f"{v:.4g}" if abs(v) != float("inf") else "never" for v in raw]
+            click.echo(f"  {e.criterion:<12}" + "".join(f"{v:>12}" for v in vals))
+        if plot is not None:
+            click.echo(f"  plot written to {plot}")
+
 
 # --- rve geometry ---------------------------------------------------------------------------
+
+
+def _rve_inputs(
+    case: str | None, fraction: str | None, diameter: str | None
+) -> tuple[float, float, str | None]:
+    """Fibre fraction, fibre diameter (m) and the case's arrangement, options first."""
+    from micromech.errors import InputError
+    from micromech.units import parse_quantity
+
+    vf: float | None = None
+    d: float | None = None
+    arrangement: str | None = None
+    if case is not None:
+        from micromech.case import load_case
+
+        loaded = load_case(case)
+        comp = loaded.composite
+        fibre = loaded.fibre if comp is None else comp.fibre
+        if comp is not None:
+            vf = float(comp.volume_fraction)
+            arrangement = comp.arrangement
+        fd = None if fibre is None else getattr(fibre, "fibre_diameter", None)
+        d = None if fd is None else float(fd)
+    if fraction is not None:
+        vf = parse_quantity(fraction, "dimensionless", "--fraction")
+    if diameter is not None:
+        d = parse_quantity(diameter, "length", "--diameter")
+    if vf is None:
+        raise InputError("--fraction: no fibre volume fraction; give --fraction or a case with "
+                         "[composite] volume_fraction")
+    if d is None:
+        raise InputError("--diameter: no fibre diameter; give --diameter (e.g. '7 um') or "
+                         "fibre_diameter in the case's [fibre] table")
+    return vf, d, arrangement
+
+
+def _rve_gap(gap: str | None, d: float) -> float | None:
+    """Minimum gap in m: a bare number is a fraction of the diameter, else a length."""
+    from micromech.units import parse_quantity
+
+    if gap is None:
+        return None
+    try:
+        return float(gap) * d
+    except ValueError:
+        return parse_quantity(gap, "length", "--gap")
+
+
+def _rve_refuse_same(target: str, other: str, option: str, what: str) -> None:
+    """Refuse an output path that names another file of the command (input or output)."""
+    from micromech.errors import InputError
+
+    if os.path.abspath(target) == os.path.abspath(other) or (
+        os.path.exists(target) and os.path.exists(other) and os.path.samefile(target, other)
+    ):
+        raise InputError(f"{option} = {target!r} is {what}; choose another file name")
+
+
+@cli.command("rve")
+@click.argument("case", required=False, type=click.Path(exists=True, dir_okay=False))
+@click.option("--packing", type=click.Choice(["random", "square", "hexagonal"]), default=None,
+              help="Fibre arrangement [default: the case's composite.arrangement, else random].")
+@click.option("--fraction", help="Fibre volume fraction (overrides the case).")
+@click.option("--diameter", help="Fibre diameter, e.g. '7 um' (overrides the case).")
+@click.option("--fibres", type=int,
+              help="Number of fibres (square: n*n; hexagonal: 2*n*n) [random default: a cell "
+                   "of 50 fibre radii].")
+@click.option("--cell-size", help="Random packing: cell side, e.g. '180 um' (not with --fibres).")
+@click.option("--gap", help="Minimum gap: fraction of the diameter ('0.05') or a length "
+                            "('0.35 um') [random: 0.05; square, hexagonal: 0].")
+@click.option("--seed", type=int, help="Random seed (recorded; drawn when not given).")
+@click.option("--out", type=click.Path(dir_okay=False),
+              help="Write the fibre centres and face images: CSV, or JSON for a .json name.")
+@click.option("--unit", default="um", show_default=True, help="Length unit of the CSV columns.")
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option("--plot", type=click.Path(dir_okay=False), help="Draw the cell to an image file.")
+def rve_command(
+    case: str | None, packing: str | None, fraction: str | None, diameter: str | None,
+    fibres: int | None, cell_size: str | None, gap: str | None, seed: int | None,
+    out: str | None, unit: str, as_json: bool, plot: str | None,
+) -> None:
+    """Make the fibre arrangement of an RVE cell from CASE (or --fraction and --diameter).
+
+    Prints the achieved fraction, the cell size in um and in fibre radii, nearest-neighbour
+    statistics and the size guidance, and writes the centres for a mesher with --out.
+    """
+    import math
+
+    from micromech.errors import InputError
+    from micromech.rve import geometry as geo
+
+    vf, d, arrangement = _rve_inputs(case, fraction, diameter)
+    method = packing or arrangement or "random"
+    min_gap = _rve_gap(gap, d)
+    for target, option in ((out, "--out"), (plot, "--plot")):
+        if target is not None and case is not None:
+            _rve_refuse_same(target, case, option, "the input case file")
+    if out is not None and plot is not None:
+        _rve_refuse_same(plot, out, "--plot", "also the --out file")
+    if method == "random":
+        arr = geo.random_cell(vf, d, n_fibres=fibres, cell_size=cell_size, min_gap=min_gap,
+                              seed=seed)
+    else:
+        if cell_size is not None:
+            raise InputError(f"--cell-size applies to random packing only, not {method}")
+        per = 1 if method == "square" else 2
+        n = 1
+        if fibres is not None:
+            n = math.isqrt(max(fibres, 0) // per)
+            if fibres < 1 or per * n * n != fibres:
+                raise InputError(f"--fibres = {fibres}: a {method} cell holds {per}*n*n fibres "
+                                 f"({', '.join(str(per * k * k) for k in (1, 2, 3, 4))}, ...)")
+        make = geo.square_cell if method == "square" else geo.hexagonal_cell
+        arr = make(vf, d, n_per_side=n, min_gap=0.0 if min_gap is None else min_gap)
+    written = None
+    if out is not None:
+        written = arr.to_json(out) if out.lower().endswith(".json") else arr.to_csv(out, unit=unit)
+    if plot is not None:
+        geo.plot_arrangement(arr, plot)
+    guide = geo.rve_size_guidance(arr)
+    if as_json:
+        data = arr.as_dict()
+        data["case"] = case
+        data["file"] = None if written is None else str(written)
+        data["plot"] = plot
+        emit_json(data)
+        return
+    lx, ly = arr.cell_size
+    r = arr.radius
+    st = arr.stats
+    n_img = int(arr.images()[1].size)
+    rows = [
+        ("packing", arr.method + ("" if arr.seed is None else f" (seed {arr.seed})")),
+        ("fibres", f"{arr.n_fibres} (+{n_img} images cutting the faces)"),
+        ("fibre diameter", f"{d * 1e6:.4g} um"),
+        ("volume fraction", f"achieved {arr.volume_fraction:.4f} (asked {arr.target_fraction:.4f})"),
+        ("cell size", f"{lx * 1e6:.4g} x {ly * 1e6:.4g} um = {lx / r:.4g} x {ly / r:.4g} "
+                      "fibre radii"),
+        ("required min gap", f"{arr.min_gap * 1e6:.4g} um ({arr.min_gap / d:.3g} d)"),
+        ("nearest distance [d]", f"mean {st.distance_mean:.4f}, min {st.distance_min:.4f}, "
+                                 f"max {st.distance_max:.4f}, std {st.distance_std:.4f}"),
+        ("nearest gap [d]", f"mean {st.gap_mean:.4f}, min {st.gap_min:.4f}, "
+                            f"std {st.gap_std:.4f}"),
+        ("RVE size guidance", f"{guide.verdict}: {guide.message}"),
+    ]
+    if written is not None:
+        rows.append(("written", str(written)))
+    if plot is not None:
+        rows.append(("plot", str(plot)))
+    title = f"RVE cell{'' if case is None else ' for ' + case}"
+    click.echo(title)
+    click.echo("-" * len(title))
+    for name, value in rows:
+        click.echo(f"  {name:<22}{value}")
+    click.echo(f"\n{geo.CAUTION}")
 
 
 # --- size (design) --------------------------------------------------------------------------

@@ -1,0 +1,303 @@
+"""Terminal table and JSON dict for the ``micromech laminate`` command.
+
+Both read a :class:`~micromech.laminate.analysis.LaminateAnalysis` and compute nothing new. The
+JSON form follows DESIGN.md ("laminate"): SI units, A in N/m, B in N, D in N*m; a value that is
+infinite (a ply that never fails along the load direction) is written as ``null``.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+import numpy as np
+
+from micromech.laminate.analysis import LaminateAnalysis
+from micromech.laminate.clt import LOAD_NAMES, POINTS
+from micromech.laminate.envelope import Envelope
+from micromech.laminate.failure import CRITERIA
+
+__all__ = ["CAUTION", "laminate_json", "laminate_table"]
+
+CAUTION = (
+    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
+    "and a licensed engineer decide."
+)
+
+_LOAD_UNITS = {"Nx": ("N/mm", 1e-3), "Ny": ("N/mm", 1e-3), "Nxy": ("N/mm", 1e-3),
+               "Mx": ("N*mm/mm", 1e3), "My": ("N*mm/mm", 1e3), "Mxy": ("N*mm/mm", 1e3)}
+
+
+def _num(x: Any) -> float | None:
+    v = float(x)
+    return v if np.isfinite(v) else None
+
+
+def _chop(a: np.ndarray, scale: float, rtol: float = 1e-12) -> np.ndarray:
+    """Round-off below ``rtol * scale`` written as 0 (e.g. B of a symmetric laminate)."""
+    a = np.asarray(a, dtype=float)
+    return np.where(np.abs(a) <= rtol * scale, 0.0, a)
+
+
+def _matrix(a: np.ndarray) -> list[list[float]]:
+    return [[float(v) for v in row] for row in a]
+
+
+def _abd_chopped(analysis: LaminateAnalysis) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    lam = analysis.laminate
+    sA = float(np.max(np.abs(lam.A)))
+    sD = float(np.max(np.abs(lam.D)))
+    return _chop(lam.A, sA), _chop(lam.B, sA * lam.thickness), _chop(lam.D, sD)
+
+
+def _stress_dict(s: np.ndarray, names: tuple[str, str, str]) -> dict[str, float]:
+    return {n: float(v) for n, v in zip(names, s, strict=True)}
+
+
+def _report_points(analysis: LaminateAnalysis) -> np.ndarray:
+    """Point (0 bottom, 1 middle, 2 top) reported for each ply.
+
+    The point that governs the analysis criterion; without strengths, the point with the largest
+    stress magnitude in material axes.
+    """
+    if analysis.criterion in analysis.criteria:
+        return analysis.ply_ratio()[1]
+    assert analysis.response is not None
+    s = analysis.response.total.stress_material
+    return np.argmax(np.linalg.norm(s, axis=-1), axis=-1)
+
+
+def _critical_plies(analysis: LaminateAnalysis) -> set[int]:
+    if analysis.criterion not in analysis.criteria:
+        return set()
+    R = analysis.ply_ratio()[0]
+    if not np.any(np.isfinite(R)):
+        return set()
+    return {int(i) for i in np.flatnonzero(R <= np.min(R) * (1.0 + 1e-9))}
+
+
+def laminate_json(
+    analysis: LaminateAnalysis, case: str = "", envelopes: list[Envelope] | None = None
+) -> dict[str, Any]:
+    """Build the JSON object of the laminate command (SI units).
+
+    Parameters
+    ----------
+    analysis : LaminateAnalysis
+        The results.
+    case : str
+        Case name.
+    envelopes : list of Envelope, optional
+        Failure envelopes to include.
+
+    Returns
+    -------
+    dict
+        Keys case, layup, angles, thickness, A, B, D, in_plane, flexural, stack_3d, loads,
+        criterion, plies, critical_plies, first_ply_failure, last_ply_failure, (envelopes),
+        notes, caution.
+    """
+    lam = analysis.laminate
+    plies: list[dict[str, Any]] = []
+    critical = _critical_plies(analysis)
+    points = _report_points(analysis) if analysis.response is not None else None
+    for i, p in enumerate(lam.plies):
+        entry: dict[str, Any] = {
+            "index": i, "angle": p.angle, "thickness": p.thickness,
+            "z_bottom": float(lam.z[i]), "z_top": float(lam.z[i + 1]),
+            "material": p.material.name,
+        }
+        if analysis.response is not None and points is not None:
+            k = int(points[i])
+            tot, th = analysis.response.total, analysis.response.thermal
+            entry["point"] = POINTS[k]
+            entry["stress_material"] = _stress_dict(tot.stress_material[i, k], ("s11", "s22",
+                                                                                  "s12"))
+            entry["stress_laminate"] = _stress_dict(tot.stress_laminate[i, k], ("sx", "sy",
+                                                                                 "sxy"))
+            entry["strain_material"] = _stress_dict(tot.strain_material[i, k], ("e11", "e22",
+                                                                                 "g12"))
+            entry["stress_material_thermal"] = _stress_dict(th.stress_material[i, k],
+                                                            ("s11", "s22", "s12"))
+            entry["stress_material_points"] = {
+                POINTS[j]: _stress_dict(tot.stress_material[i, j], ("s11", "s22", "s12"))
+                for j in range(3)
+            }
+        else:
+            entry["point"] = None
+            entry["stress_material"] = None
+        if analysis.criteria:
+            crit: dict[str, Any] = {}
+            for key, res in analysis.criteria.items():
+                R = res.strength_ratio[i]
+                j = int(np.argmin(R))
+                crit[key] = {"index": _num(res.index[i, j]), "strength_ratio": _num(R[j]),
+                             "mode": str(res.mode[i, j]), "point": POINTS[j]}
+            entry["criteria"] = crit
+        else:
+            entry["criteria"] = None
+        entry["critical"] = i in critical
+        plies.append(entry)
+    loads = {k: float(v) for k, v in zip(LOAD_NAMES, analysis.loads, strict=True)}
+    loads["delta_T"] = analysis.delta_T
+    A, B, D = _abd_chopped(analysis)
+    out: dict[str, Any] = {
+        "case": case,
+        "layup": lam.code,
+        "angles": [float(a) for a in lam.angles],
+        "thickness": lam.thickness,
+        "A": _matrix(A), "B": _matrix(B), "D": _matrix(D),
+        "in_plane": analysis.in_plane.as_dict(),
+        "flexural": analysis.flexural.as_dict(),
+        "stack_3d": analysis.stack.as_dict() if analysis.stack is not None else None,
+        "thermal_expansion": (
+            {k: float(v) for k, v in zip(("alpha_x", "alpha_y", "alpha_xy"),
+                                         lam.thermal_expansion()[:3], strict=True)}
+            if all(p.material.has_expansion for p in lam.plies) else None
+        ),
+        "loads": loads,
+        "criterion": analysis.criterion,
+        "f12_star": analysis.f12_star,
+        "plies": plies,
+        "critical_plies": sorted(critical),
+        "first_ply_failure": analysis.first_ply.as_dict() if analysis.first_ply else None,
+        "last_ply_failure": analysis.sequence.as_dict() if analysis.sequence else None,
+    }
+    if envelopes:
+        out["envelopes"] = [e.as_dict() for e in envelopes]
+    out["notes"] = list(analysis.notes)
+    out["caution"] = CAUTION
+    return out
+
+
+def _fmt(x: float, width: int = 10, digits: int = 4) -> str:
+    if not np.isfinite(x):
+        return f"{'never':>{width}}" if x > 0 else f"{'-':>{width}}"
+    return f"{x:>{width}.{digits}g}"
+
+
+def _block(title: str, M: np.ndarray, factor: float) -> list[str]:
+    rows = [title]
+    for r in M * factor:
+        rows.append("  " + "".join(f"{v:>14.5g}" for v in r))
+    return rows
+
+
+def _load_text(vec: np.ndarray) -> str:
+    parts = []
+    for name, v in zip(LOAD_NAMES, vec, strict=True):
+        if v != 0.0:
+            unit, f = _LOAD_UNITS[name]
+            parts.append(f"{name} = {v * f:.5g} {unit}")
+    return ", ".join(parts)
+
+
+def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
+    """Render the laminate results as plain text (no colour codes).
+
+    Parameters
+    ----------
+    analysis : LaminateAnalysis
+        The results.
+    case : str
+        Case name for the heading.
+
+    Returns
+    -------
+    str
+        The report: ABD, constants, ply table with strength ratios and the critical ply
+        marked ``<<``, first- and last-ply failure, notes and the caution.
+    """
+    lam = analysis.laminate
+    out: list[str] = []
+    head = f"Laminate {lam.code or '(angles as listed)'}: {lam.n_plies} plies, " \
+           f"h = {lam.thickness * 1e3:.4g} mm"
+    if case:
+        head += f"   [{case}]"
+    out.append(head)
+    names = sorted({p.material.name or "unnamed" for p in lam.plies})
+    out.append(f"Ply material: {', '.join(names)}")
+    out.append("Angles (deg, bottom to top): " + "/".join(f"{a:g}" for a in lam.angles))
+    out.append("")
+    A, B, D = _abd_chopped(analysis)
+    out += _block("A (N/mm)", A, 1e-3)
+    out += _block("B (N)", B, 1.0)
+    out += _block("D (N*mm)", D, 1e3)
+    out.append("")
+    out.append(f"{'constants':<22}{'Ex (GPa)':>10}{'Ey (GPa)':>10}{'Gxy (GPa)':>11}"
+               f"{'nuxy':>8}{'nuyx':>8}")
+    for label, c in (("in-plane", analysis.in_plane), ("flexural", analysis.flexural)):
+        out.append(f"{label:<22}{c.Ex / 1e9:>10.4g}{c.Ey / 1e9:>10.4g}{c.Gxy / 1e9:>11.4g}"
+                   f"{c.nuxy:>8.4f}{c.nuyx:>8.4f}")
+    if analysis.stack is not None:
+        s = analysis.stack.as_dict()
+        out.append("3D stack (periodic)   " + "  ".join(
+            f"{k} = {float(s[k]) / 1e9:.4g} GPa" for k in ("Ex", "Ey", "Ez")))  # type: ignore
+        out.append("                      " + "  ".join(
+            f"{k} = {float(s[k]) / 1e9:.4g} GPa" for k in ("Gxy", "Gxz", "Gyz")))  # type: ignore
+        out.append("                      " + "  ".join(
+            f"{k} = {float(s[k]):.4f}" for k in ("nuxy", "nuxz", "nuyz")))  # type: ignore
+    if analysis.response is not None:
+        out.append("")
+        text = _load_text(analysis.loads)
+        if analysis.delta_T:
+            text = (text + ", " if text else "") + f"delta_T = {analysis.delta_T:g} K"
+        out.append(f"Loads: {text}")
+        out += _ply_table(analysis)
+    if analysis.first_ply is not None:
+        e = analysis.first_ply
+        out.append("")
+        out.append(
+            f"First-ply failure ({analysis.criterion}): load factor {_fmt(e.load_factor, 0)} "
+            f"-> {_load_text(np.asarray(e.resultants))}; plies {', '.join(map(str, e.plies))} "
+            f"({', '.join(sorted(set(e.modes)))})"
+        )
+    if analysis.sequence is not None and analysis.sequence.events:
+        seq = analysis.sequence
+        out.append(f"Ply discount ({seq.criterion}), thermal part held fixed:")
+        out.append(f"  {'event':>5}{'load factor':>13}  plies (mode)")
+        for n, e in enumerate(seq.events, 1):
+            desc = ", ".join(f"{i} ({m})" for i, m in zip(e.plies, e.modes, strict=True))
+            out.append(f"  {n:>5}{_fmt(e.load_factor, 13)}  {desc}")
+        end = "laminate collapsed" if seq.collapsed else "remaining plies do not fail"
+        out.append(f"  last-ply failure: load factor {_fmt(seq.last_ply_factor, 0)} "
+                   f"-> {_load_text(analysis.loads * seq.last_ply_factor)} ({end})")
+    if analysis.notes:
+        out.append("")
+        out += [f"note: {n}" for n in analysis.notes]
+    out.append("")
+    out.append(CAUTION)
+    return "\n".join(out)
+
+
+def _ply_table(analysis: LaminateAnalysis) -> list[str]:
+    lam = analysis.laminate
+    assert analysis.response is not None
+    points = _report_points(analysis)
+    critical = _critical_plies(analysis)
+    crits = [c for c in CRITERIA if c in analysis.criteria]
+    head1 = (f"{'ply':>4}{'angle':>7}{'z_bot':>8}{'z_top':>8}{'point':>8}"
+             f"{'s11':>11}{'s22':>11}{'s12':>11}")
+    head2 = (f"{'':>4}{'(deg)':>7}{'(mm)':>8}{'(mm)':>8}{'':>8}"
+             f"{'(MPa)':>11}{'(MPa)':>11}{'(MPa)':>11}")
+    if crits:
+        head1 += "".join(f"{c:>12}" for c in crits) + f"  {'mode (' + analysis.criterion + ')':<24}"
+        head2 += "".join(f"{'R':>12}" for _ in crits) + f"  {'':<24}"
+        head1 += "crit"
+    out = [head1, head2]
+    s = analysis.response.total.stress_material
+    s = _chop(s, float(np.max(np.abs(s))), 1e-9)
+    for i, p in enumerate(lam.plies):
+        k = int(points[i])
+        row = (f"{i:>4}{p.angle:>7g}{lam.z[i] * 1e3:>8.4g}{lam.z[i + 1] * 1e3:>8.4g}"
+               f"{POINTS[k]:>8}" + "".join(f"{v / 1e6:>11.4g}" for v in s[i, k]))
+        if crits:
+            for c in crits:
+                row += _fmt(float(np.min(analysis.criteria[c].strength_ratio[i])), 12)
+            res = analysis.criteria[analysis.criterion]
+            j = int(np.argmin(res.strength_ratio[i]))
+            row += f"  {res.mode[i, j]:<24}" + ("<<" if i in critical else "")
+        out.append(row)
+    if crits:
+        out.append("R = strength ratio (load multiplier to failure; thermal part held fixed); "
+                   "<< marks the critical ply")
+    return out

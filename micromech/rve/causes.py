@@ -1,0 +1,648 @@
+"""Likely causes of a simulated value far from its bounds or estimates, and cross-checks.
+
+The causes are tried in the order they are met in practice: a unit slip (a ratio to the best
+estimate near a power of 1000), a wrong area or length (a ratio near a ratio of the RVE's faces
+or edges), a sign slip, boundary conditions (over-constrained when too stiff, free faces when
+too soft), and a fibre fraction other than the declared one (solved for under the best
+estimate). A wrong cell size shows in the three normal load cases together and is found by
+:func:`fit_size_error`. The cross-checks (:func:`consistency_reasons`) test reciprocity and the
+equalities that the cell's symmetry imposes.
+
+References
+----------
+.. [1] Hill, R. (1952). The elastic behaviour of a crystalline aggregate. *Proc. Phys. Soc. A*
+   65, 349-354 (the constrained modulus C_ii exceeds the Young's modulus 1/S_ii).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from itertools import product
+from typing import Any
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from micromech.errors import InputError
+from micromech.units import format_si
+
+__all__ = [
+    "MODEL_LABELS",
+    "Diagnosis",
+    "consistency_reasons",
+    "fit_size_error",
+    "fraction_for_value",
+    "likely_causes",
+    "model_label",
+    "property_kind",
+    "size_error_reason",
+]
+
+_AXES = ("x", "y", "z")
+
+#: Relative mismatch allowed by the consistency checks (reciprocity, equal moduli of a
+#: symmetric cell): curve-fit scatter and finite random cells (common practice, no source).
+RECIPROCITY_TOLERANCE = 0.05
+SYMMETRY_TOLERANCE = {"hexagonal": 0.05, "square": 0.05, "random": 0.10}
+#: Strengths depend on local details (the first crack, the mesh near it): a looser tolerance.
+STRENGTH_SYMMETRY_TOLERANCE = 0.15
+
+#: Plain labels of the model keys, for sentences and tables.
+MODEL_LABELS: dict[str, str] = {
+    "voigt": "Voigt",
+    "reuss": "Reuss",
+    "hashin_shtrikman_lower": "Hashin-Shtrikman lower",
+    "hashin_shtrikman_upper": "Hashin-Shtrikman upper",
+    "rule_of_mixtures": "rule of mixtures",
+    "halpin_tsai": "Halpin-Tsai",
+    "chamis": "Chamis",
+    "cylinders": "composite cylinders",
+    "mori_tanaka": "Mori-Tanaka",
+}
+
+
+def model_label(key: str) -> str:
+    """Return a plain label for a model key (``stack_`` keys: a stack of such plies).
+
+    Parameters
+    ----------
+    key : str
+        Model key such as ``"mori_tanaka"`` or ``"stack_halpin_tsai"``.
+
+    Returns
+    -------
+    str
+        The label, e.g. ``"Mori-Tanaka"`` or ``"stack of Halpin-Tsai plies"``.
+    """
+    if key.startswith("stack_"):
+        return f"stack of {model_label(key[6:])} plies"
+    return MODEL_LABELS.get(key, key.replace("_", " "))
+
+
+def property_kind(name: str) -> str:
+    """Return the kind of a property: ``modulus``, ``shear``, ``poisson`` or ``strength``.
+
+    Parameters
+    ----------
+    name : str
+        Property name (``"E2"``, ``"Gxy"``, ``"nu12"``, ``"yield_strength_x"`` ...).
+
+    Returns
+    -------
+    str
+        The kind.
+
+    Raises
+    ------
+    InputError
+        For a name that is none of these.
+    """
+    if name.startswith("nu"):
+        return "poisson"
+    if "strength" in name:
+        return "strength"
+    if name.startswith("E"):
+        return "modulus"
+    if name.startswith("G"):
+        return "shear"
+    raise InputError(
+        f"property name {name!r} is not a modulus (E...), shear modulus (G...), Poisson ratio "
+        "(nu...) or strength (..._strength_...)"
+    )
+
+
+def _fmt(value: float | None, name: str) -> str:
+    if value is None:
+        return "-"
+    if property_kind(name) == "poisson":
+        return f"{value:.4g}"
+    return format_si(float(value), "pressure")
+
+
+def _pct(a: float, b: float) -> str:
+    """Signed relative difference of a against b, in %."""
+    return f"{100.0 * (a / b - 1.0):+.1f} %"
+
+
+def _finite(x: Any) -> float | None:
+    if x is None:
+        return None
+    try:
+        v = float(np.asarray(x, dtype=np.float64))
+    except (TypeError, ValueError):
+        return None
+    return v if math.isfinite(v) else None
+
+
+@dataclass(frozen=True)
+class Diagnosis:
+    """How a simulated value was obtained, so that a bad value can be traced to a cause.
+
+    Attributes
+    ----------
+    direction : str, optional
+        Load case of the value: ``x``, ``y``, ``z`` (normal) or ``xy``, ``yz``, ``xz`` (shear,
+        force along the first axis on the face normal to the second).
+    lateral : str, optional
+        Lateral axis of a Poisson ratio (``"y"`` for nu_xy).
+    size : (float, float, float), optional
+        Declared RVE edge lengths (x, y, z), m.
+    source : {"force_displacement", "stress_strain", "stiffness"}
+        What the value was computed from.
+    fraction : float, optional
+        Declared fibre volume fraction.
+    fraction_curve : (array, array), optional
+        Fibre fractions and the best estimate of the property at each, for solving the
+        fraction that would give the simulated value.
+    constrained_modulus : float, optional
+        The best estimate's modulus under uniaxial strain (C_ii), Pa: a value near it points to
+        lateral faces held fixed.
+    """
+
+    direction: str | None = None
+    lateral: str | None = None
+    size: tuple[float, float, float] | None = None
+    source: str = "force_displacement"
+    fraction: float | None = None
+    fraction_curve: tuple[ArrayLike, ArrayLike] | None = None
+    constrained_modulus: float | None = None
+
+
+# ------------------------------------------------------------------------------------------
+# likely causes
+
+
+def likely_causes(
+    name: str,
+    value: float,
+    *,
+    best_value: float | None,
+    best_model: str = "the best estimate",
+    band: tuple[float, float] | None = None,
+    lower_bound: float | None = None,
+    upper_bound: float | None = None,
+    context: Diagnosis | None = None,
+) -> list[str]:
+    """List the likely causes of a value far from the best estimate, most likely first.
+
+    The order: a unit slip (ratio near a power of 1000, or 100 for percent strains), a wrong
+    area or length (ratio near a ratio of the RVE's faces or edges), a sign slip, boundary
+    conditions (over-constrained when too stiff, free faces when too soft), and the fibre
+    fraction that would give the value under the best estimate.
+
+    Parameters
+    ----------
+    name : str
+        Property name.
+    value : float
+        Simulated value, SI.
+    best_value : float or None
+        The best estimate, SI.
+    best_model : str
+        Its label, for the sentences.
+    band : (float, float), optional
+        The expected band; a correction must bring the value near it to count as a match.
+    lower_bound, upper_bound : float, optional
+        Rigorous bounds; a correction must bring the value inside them.
+    context : Diagnosis, optional
+        How the value was obtained.
+
+    Returns
+    -------
+    list of str
+        Sentences, most likely cause first.
+    """
+    ctx = context or Diagnosis()
+    kind = property_kind(name)
+    out: list[tuple[float, str]] = []
+    if best_value is None or best_value == 0.0:
+        return []
+    ratio = value / best_value
+    label = best_model
+    lo_ok = (band[0] if band else best_value * 0.85) / 1.15
+    hi_ok = (band[1] if band else best_value * 1.15) * 1.15
+    lo_ok, hi_ok = min(lo_ok, hi_ok), max(lo_ok, hi_ok)
+
+    def inside_bounds(x: float) -> bool:
+        return ((lower_bound is None or x >= lower_bound * 0.9)
+                and (upper_bound is None or x <= upper_bound * 1.1))
+
+    # 1. unit slips: only factors of 1000 (and 100 for percent strains) give such ratios
+    residual = ratio
+    if ratio > 0:
+        for f, text in _unit_factors(kind, ctx.source):
+            r = ratio / f
+            if abs(math.log(r)) < math.log(3.0) and inside_bounds(value / f):
+                residual = r
+                out.append((-10.0 + abs(math.log(r)), (
+                    f"A unit slip: {name} is {ratio:.3g} times {label} = "
+                    f"{_fmt(best_value, name)}, close to {_factor_text(f)}{_rest(r)}. {text}")))
+                break
+    # 2. a wrong area or length (also on top of a unit slip); alike factors share a sentence
+    if residual > 0 and ctx.size is not None and ctx.direction is not None:
+        lo_g, hi_g = (band[0] / 1.05, band[1] * 1.05) if band else (lo_ok, hi_ok)
+        groups: dict[float, list[str]] = {}
+        for f, text in _geometry_factors(kind, ctx):
+            corrected = best_value * residual / f
+            gain = abs(math.log(residual)) - abs(math.log(residual / f))
+            if lo_g <= corrected <= hi_g and inside_bounds(corrected) and gain > 0.05:
+                groups.setdefault(float(f"{f:.3g}"), []).append(text)
+        ranked = sorted(groups.items(), key=lambda kv: (abs(math.log(residual / kv[0])),
+                                                        len(kv[1][0])))
+        for f, texts in ranked[:2]:
+            out.append((-5.0 + abs(math.log(residual / f)), (
+                f"A wrong area or length: the ratio {residual:.3g} to {label} is close to "
+                f"{f:.3g}, as with {'; or '.join(texts[:2])}; check [rve].size and the face "
+                f"the force acts on ({ctx.direction} load case).")))
+    # 3. a sign slip
+    if ratio < 0 and lo_ok <= -value <= hi_ok:
+        out.append((-4.0, (
+            f"A sign slip: {name} has the wrong sign but the right size; force and displacement "
+            "(or stress and strain) are of opposite sign, e.g. a compressive load read with a "
+            "tensile sign convention, or the displacement of the other face.")))
+    # 4. boundary conditions
+    if ratio > 1.0:
+        cm = ctx.constrained_modulus
+        if kind == "modulus" and cm is not None and abs(math.log(value / cm)) < math.log(1.1):
+            out.append((-3.0, (
+                f"Over-constrained boundary conditions: {name} = {_fmt(value, name)} is close "
+                f"to the constrained modulus {_fmt(cm, name)} of {label} (lateral "
+                "contraction prevented); let the lateral faces contract (periodic or "
+                "symmetry conditions), do not hold them fixed.")))
+        else:
+            out.append((1.0, _BC_STIFF[kind]))
+    else:
+        out.append((1.0, _BC_SOFT[kind]))
+    # 5. the fibre fraction
+    if ctx.fraction_curve is not None and kind != "strength":
+        vf_grid, values = ctx.fraction_curve
+        vf = fraction_for_value(value, vf_grid, values, declared=ctx.fraction)
+        declared = "" if ctx.fraction is None else f" instead of the declared {ctx.fraction:.3g}"
+        if vf is not None:
+            out.append((2.0, (
+                f"A fibre fraction different from the declared one: {label} gives this "
+                f"value at Vf = {vf:.3f}{declared}; check the fibre count, diameter and cell "
+                "size of the RVE geometry.")))
+        else:
+            vmax = float(np.max(np.asarray(vf_grid)))
+            out.append((3.0, (
+                f"No fibre fraction between 0 and {vmax:.3g} gives this value under "
+                f"{label}, so a wrong fraction alone cannot explain it.")))
+    out.sort(key=lambda t: t[0])
+    return [f"Likely cause {i + 1}: {text}" for i, (_, text) in enumerate(out)]
+
+
+def _rest(r: float) -> str:
+    if abs(math.log(r)) < 0.05:
+        return ""
+    return f" (remaining factor {r:.3g})"
+
+
+def _factor_text(f: float) -> str:
+    k = math.log10(f)
+    if abs(k - round(k)) < 1e-9:
+        return f"10^{int(round(k))}"
+    return f"{f:g}"
+
+
+def _unit_factors(kind: str, source: str) -> list[tuple[float, str]]:
+    """(factor by which the value is too large, explanation) for common unit slips."""
+    big: str
+    small: str
+    if kind == "poisson":
+        big = ("Check that the lateral and the axial displacement (or strain) columns carry the "
+               "same unit as declared, e.g. one in um and the other in mm.")
+        small = big
+    elif source == "stiffness":
+        big = "Check the unit declared for the stiffness matrix (e.g. GPa declared, MPa given)."
+        small = "Check the unit declared for the stiffness matrix (e.g. MPa declared, GPa given)."
+    elif source == "stress_strain":
+        big = ("Check the stress unit (e.g. GPa declared while the file holds MPa) and the "
+               "strain unit.")
+        small = ("Check the stress unit (e.g. Pa or kPa declared while the file holds MPa) and "
+                 "the strain unit (microstrain read as strain).")
+    elif kind == "strength":
+        big = ("Check the force unit (e.g. kN declared while the file holds N) and [rve].size "
+               "(an area in mm^2 read as um^2 is a factor 10^6).")
+        small = ("Check the force unit (e.g. N declared while the file holds kN, or mN read as "
+                 "N) and [rve].size.")
+    else:
+        big = ("Check the units of the load case: force declared in kN while the file holds N, "
+               "displacement declared in um while the file holds mm, or a cell size in "
+               "[rve].size given in um where mm were meant.")
+        small = ("Check the units of the load case: displacement declared in mm while the file "
+                 "holds um, force declared in N while the file holds kN (or mN), or a cell "
+                 "size in [rve].size given in mm where um were meant.")
+    out: list[tuple[float, str]] = []
+    for k in (1, 2, 3):
+        out.append((1000.0**k, big))
+        out.append((1000.0**-k, small))
+    if source == "stress_strain" and kind in ("modulus", "shear"):
+        out.append((0.01, "The strains may be written in percent but read as plain numbers "
+                          "(give unit = \"%\")."))
+        out.append((100.0, "The strains may be plain numbers but declared in percent."))
+    return out
+
+
+_FACE = {"x": ("y", "z"), "y": ("x", "z"), "z": ("x", "y")}
+
+
+def _geometry_factors(kind: str, ctx: Diagnosis) -> list[tuple[float, str]]:
+    """(factor by which the value is too large, what went wrong) for swapped faces/edges."""
+    assert ctx.size is not None and ctx.direction is not None
+    L = dict(zip(_AXES, ctx.size, strict=True))
+    d = ctx.direction
+
+    def area(face: str) -> float:
+        a, b = _FACE[face]
+        return L[a] * L[b]
+
+    out: list[tuple[float, str]] = []
+    if kind == "poisson":
+        if ctx.lateral is None or len(d) != 1:
+            return []
+        lat = ctx.lateral
+        for ax_used, lat_used in product(_AXES, _AXES):
+            if (ax_used, lat_used) == (d, lat):
+                continue
+            # nu = (u_lat / L_lat) / (u_ax / L_ax)
+            f = (L[lat] * L[ax_used]) / (L[lat_used] * L[d])
+            if abs(math.log(f)) > 0.01:
+                out.append((f, (
+                    f"the lateral strain taken over the {lat_used} edge and the axial "
+                    f"strain over the {ax_used} edge")))
+        return out
+    if len(d) == 1:
+        face_true, len_true = d, d
+    else:  # shear ij: force along i on the face normal to j, gauge length L_j
+        face_true, len_true = d[1], d[1]
+    lengths = (_AXES if kind != "strength" else (len_true,))
+    for face_used, len_used in product(_AXES, lengths):
+        if (face_used, len_used) == (face_true, len_true):
+            continue
+        f = (area(face_true) * L[len_used]) / (area(face_used) * L[len_true])
+        if abs(math.log(f)) < 0.01:
+            continue
+        parts = []
+        if face_used != face_true:
+            parts.append(f"the stress computed with the area of the {face_used} face instead of "
+                         f"the {face_true} face")
+        if len_used != len_true:
+            parts.append(f"the strain computed over the {len_used} edge instead of the "
+                         f"{len_true} edge")
+        out.append((f, " and ".join(parts)))
+    return out
+
+
+_BC_STIFF = {
+    "modulus": ("Over-constrained boundary conditions make the cell too stiff: lateral faces "
+                "held fixed, rigid plates that prevent the Poisson contraction, or constraints "
+                "that tie nodes across the cell; use periodic conditions."),
+    "shear": ("Over-constrained boundary conditions make the cell too stiff in shear: faces "
+              "held flat or fixed normal displacements where periodic conditions are needed."),
+    "poisson": ("Boundary conditions or post-processing: a lateral strain taken from a single "
+                "node or a constrained face instead of the face average."),
+    "strength": ("Over-constrained boundary conditions raise the apparent strength (lateral "
+                 "faces held fixed add confinement); also check the load-carrying area."),
+}
+_BC_SOFT = {
+    "modulus": ("Boundary conditions that leave the cell too free make it too soft: free "
+                "faces or edges without periodic constraints, a load on part of a face only, "
+                "or fibres not tied to the matrix (debonded interface)."),
+    "shear": ("Boundary conditions that leave the cell too free in shear: free edges, no "
+              "periodic constraints, or fibres not tied to the matrix."),
+    "poisson": ("Boundary conditions: lateral faces held fixed drive the Poisson ratio towards "
+                "0; or a lateral strain taken from a single node instead of the face average."),
+    "strength": ("A soft or damaged model: free edges, an unbonded interface or damage that "
+                 "starts early lower the apparent strength; also check the load-carrying area."),
+}
+
+
+def fraction_for_value(
+    value: float, vf: ArrayLike, values: ArrayLike, *, declared: float | None = None
+) -> float | None:
+    """Solve for the fibre fraction at which an estimate equals a value.
+
+    Parameters
+    ----------
+    value : float
+        The target (the simulated value), SI.
+    vf : array_like, shape (n,)
+        Increasing fibre fractions.
+    values : array_like, shape (n,)
+        The estimate at each fraction.
+    declared : float, optional
+        Declared fraction: of several solutions the nearest to it is returned.
+
+    Returns
+    -------
+    float or None
+        The fraction (linear interpolation between grid points), or None when the estimate
+        never reaches the value on the grid.
+
+    Raises
+    ------
+    InputError
+        If ``vf`` and ``values`` differ in shape or have fewer than two points.
+
+    Examples
+    --------
+    >>> fraction_for_value(2.0, [0.0, 0.5, 1.0], [1.0, 2.0, 3.0])
+    0.5
+    """
+    x = np.asarray(vf, dtype=np.float64).ravel()
+    y = np.asarray(values, dtype=np.float64).ravel() - value
+    if x.shape != y.shape or x.size < 2:
+        raise InputError(
+            f"fraction curve: vf and values must be 1-D of equal length >= 2, got {x.size} and "
+            f"{y.size}"
+        )
+    roots = [float(x[i]) for i in np.flatnonzero(y == 0.0)]
+    s = np.flatnonzero(np.sign(y[:-1]) * np.sign(y[1:]) < 0)
+    roots += list(x[s] - y[s] * (x[s + 1] - x[s]) / (y[s + 1] - y[s]))
+    if not roots:
+        return None
+    ref = 0.5 * (x[0] + x[-1]) if declared is None else declared
+    return float(min(roots, key=lambda r: abs(r - ref)))
+
+
+def fit_size_error(
+    ratios: Mapping[str, float], size: Sequence[float], *, tolerance: float = 0.1
+) -> tuple[str, float] | None:
+    """Test whether the moduli of the x, y, z load cases point to one wrong cell size.
+
+    A size entry off by a factor s (true = s * declared) scales the modulus of its own axis
+    by 1/s and those of the two other axes by s (the load-carrying area of those cases
+    contains it). Unit slips of a power of 1000 are removed from the ratios first.
+
+    Parameters
+    ----------
+    ratios : Mapping of str to float
+        For ``"x"``, ``"y"``, ``"z"``: simulated modulus / best estimate (all three needed).
+    size : sequence of 3 float
+        Declared edge lengths (x, y, z), m.
+    tolerance : float
+        Largest relative misfit of each ratio to the one-size pattern.
+
+    Returns
+    -------
+    (str, float) or None
+        The axis and the factor s (true size = s * declared), or None when no single wrong
+        size explains the ratios or the factor is within ``tolerance`` of 1.
+
+    Examples
+    --------
+    >>> fit_size_error({"x": 1.5, "y": 1 / 1.5, "z": 1.5}, (1e-4, 1e-4, 1e-4))
+    ('y', 1.5)
+    """
+    if not all(a in ratios for a in _AXES):
+        return None
+    logs = {}
+    for a in _AXES:
+        r = float(ratios[a])
+        if not (math.isfinite(r) and r > 0):
+            return None
+        k = round(math.log(r) / math.log(1000.0))
+        logs[a] = math.log(r) - k * math.log(1000.0)
+    best: tuple[float, str, float] | None = None
+    for axis in _AXES:
+        # pattern: log r_axis = -t, log r_other = +t; least squares t
+        t = (-logs[axis] + sum(logs[o] for o in _AXES if o != axis)) / 3.0
+        misfit = max(abs(logs[o] - (-t if o == axis else t)) for o in _AXES)
+        if best is None or misfit < best[0]:
+            best = (misfit, axis, t)
+    assert best is not None
+    misfit, axis, t = best
+    if misfit > math.log(1.0 + tolerance) or abs(t) < math.log(1.0 + tolerance):
+        return None
+    return axis, float(round(math.exp(t), 6))
+
+
+def size_error_reason(axis: str, factor: float, size: Sequence[float]) -> str:
+    """Sentence for a wrong cell size found by :func:`fit_size_error`.
+
+    Parameters
+    ----------
+    axis : str
+        The axis whose size looks wrong.
+    factor : float
+        True size / declared size.
+    size : sequence of 3 float
+        Declared sizes, m.
+
+    Returns
+    -------
+    str
+        The sentence.
+    """
+    declared = float(size[_AXES.index(axis)])
+    return (
+        f"A wrong cell size: the moduli of the x, y and z load cases together fit a cell whose "
+        f"{axis} edge is {factor:.3g} times the declared {format_si(declared, 'length')} "
+        f"(about {format_si(declared * factor, 'length')}); check size.{axis} in [rve] (it sets "
+        f"the loaded area of two load cases and the gauge length of the third)."
+    )
+
+
+# ------------------------------------------------------------------------------------------
+# consistency checks across properties
+
+
+@dataclass(frozen=True)
+class _Pairs:
+    reciprocity: tuple[tuple[str, str, str, str], ...]
+    equal: tuple[tuple[str, str], ...]
+
+
+_UD_PAIRS = _Pairs(
+    reciprocity=(("nu12", "E1", "nu21", "E2"), ("nu13", "E1", "nu31", "E3"),
+                 ("nu23", "E2", "nu32", "E3")),
+    equal=(("E2", "E3"), ("G12", "G13"), ("nu12", "nu13")),
+)
+_STACK_PAIRS = _Pairs(
+    reciprocity=(("nuxy", "Ex", "nuyx", "Ey"), ("nuxz", "Ex", "nuzx", "Ez"),
+                 ("nuyz", "Ey", "nuzy", "Ez")),
+    equal=(("Ex", "Ey"), ("Gxz", "Gyz"), ("nuxz", "nuyz"), ("nuzx", "nuzy"),
+           ("yield_strength_x", "yield_strength_y"),
+           ("ultimate_strength_x", "ultimate_strength_y")),
+)
+
+
+def consistency_reasons(
+    values: Mapping[str, float],
+    *,
+    stack: bool = False,
+    symmetric: bool = True,
+    arrangement: str = "random",
+) -> dict[str, list[str]]:
+    """Consistency checks across the simulated properties; each failure makes them suspect.
+
+    Checks: reciprocity nu_ij / E_i = nu_ji / E_j (the stiffness is symmetric); the moduli a
+    symmetric cell must have equal (E2 = E3, G12 = G13 for aligned fibres in a hexagonal,
+    square or random arrangement; Ex = Ey, Gxz = Gyz and the x and y strengths for a balanced
+    cross-ply). The limit-analysis checks of strengths are bounds in
+    :func:`~micromech.rve.verdicts.grade_property` with ``bounds_rigorous=False``.
+
+    Parameters
+    ----------
+    values : Mapping of str to float
+        Simulated properties by name, SI.
+    stack : bool
+        Names in stack axes (Ex ...) instead of material axes (E1 ...).
+    symmetric : bool
+        Whether the cell's symmetry makes the pairs equal (a balanced cross-ply; aligned
+        fibres).
+    arrangement : str
+        Fibre arrangement; a random cell may differ a little more between the pairs.
+
+    Returns
+    -------
+    dict of str to list of str
+        Property name -> reasons (only properties that fail a check).
+
+    References
+    ----------
+    Reciprocity follows from the symmetry of the compliance matrix (any elasticity text, e.g.
+    Jones (1999), *Mechanics of Composite Materials*, 2nd ed., Eq. 2.47, from memory).
+    """
+    out: dict[str, list[str]] = {}
+    pairs = _STACK_PAIRS if stack else _UD_PAIRS
+
+    def add(name: str, text: str) -> None:
+        out.setdefault(name, []).append(text)
+
+    for nij, ei, nji, ej in pairs.reciprocity:
+        if all(k in values for k in (nij, ei, nji, ej)):
+            a, b = values[nij] / values[ei], values[nji] / values[ej]
+            scale = max(abs(a), abs(b))
+            if scale > 0 and abs(a - b) / scale > RECIPROCITY_TOLERANCE:
+                text = (
+                    f"Reciprocity fails: {nij}/{ei} = {a:.4g} 1/Pa but {nji}/{ej} = {b:.4g} 1/Pa "
+                    f"({100 * abs(a - b) / scale:.1f} % apart, more than "
+                    f"{100 * RECIPROCITY_TOLERANCE:.0f} %); the compliance of any elastic cell "
+                    "is symmetric, so a strain or modulus of one of the two load cases is "
+                    "wrong (units, gauge length, or lateral strains taken at a point)."
+                )
+                add(nij, text)
+                add(nji, text)
+    if symmetric:
+        tol = SYMMETRY_TOLERANCE.get(arrangement, 0.10)
+        why = ("a balanced cross-ply is the same after a 90 degree turn about z"
+               if stack else "aligned fibres make the cell transversely isotropic (or square-"
+               "symmetric) about the fibre axis")
+        for p, q in pairs.equal:
+            if p in values and q in values:
+                vp, vq = values[p], values[q]
+                mean = 0.5 * (abs(vp) + abs(vq))
+                t = STRENGTH_SYMMETRY_TOLERANCE if "strength" in p else tol
+                if mean > 0 and abs(vp - vq) / mean > t:
+                    text = (
+                        f"{p} = {_fmt(vp, p)} and {q} = {_fmt(vq, q)} differ by "
+                        f"{100 * abs(vp - vq) / mean:.1f} % (more than {100 * t:.0f} %) though "
+                        f"{why}; check the load cases, sizes and boundary conditions of both."
+                    )
+                    add(p, text)
+                    add(q, text)
+    return out

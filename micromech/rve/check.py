@@ -1,0 +1,761 @@
+"""Check simulated RVE results against rigorous bounds and closed-form estimates.
+
+:func:`check_case` reads a case file's ``[rve]`` results (histories, averaged load cases or a
+full stiffness), measures the curves, and grades every property it can name (see
+:mod:`micromech.rve.verdicts`) against what the case's constituents, fraction and architecture
+allow:
+
+============== ============================== ====================================== ==========
+architecture   rigorous bounds                estimates                              best
+============== ============================== ====================================== ==========
+unidirectional Voigt/Reuss of the             every estimate of the composite         Mori-
+               constituents (x = fibre = 1)   (Mori-Tanaka, Halpin-Tsai, cylinders,   Tanaka
+                                              Chamis, rule of mixtures); HS band
+                                              where the arrangement is transversely
+                                              isotropic (random, hexagonal)
+crossply,      Voigt/Reuss of the             stacks (exact layer averaging) of       stack of
+stack          constituents over the whole    plies from each complete estimate       Mori-
+               cell, fibres turned with       (Mori-Tanaka, Halpin-Tsai, HS lower /   Tanaka
+               their plies                    upper, cylinders)                       plies
+particulate    Voigt/Reuss                    Mori-Tanaka (spheres/spheroids); HS     Mori-
+                                              band for a random arrangement           Tanaka
+============== ============================== ====================================== ==========
+
+Directions: x, y in-plane and z through the thickness; for unidirectional and particulate cells
+x = 1 (the fibre axis), y = 2, z = 3, and the properties are named E1 ... nu32; for stacks Ex
+... nuzy. Strengths are graded against the limit-analysis bounds (matrix yield below; Voigt
+average of the phase strengths above); outside them a strength is ``suspect``.
+
+Estimates and bounds are not design allowables: qualified test data, the applicable codes and a
+licensed engineer decide.
+
+References
+----------
+.. [1] Hill, R. (1952). *Proc. Phys. Soc. A* 65, 349-354 (Voigt and Reuss bounds; the bound on
+   a directional modulus follows from the bound on the stiffness as a quadratic form).
+.. [2] Pagano, N. J. (1974). Exact moduli of anisotropic laminates. In *Composite Materials*
+   Vol. 2, Academic Press, 23-44 (stack constants).
+.. [3] Drucker, D. C. (1966). *J. Materials* 1, 873-910 (limit-analysis bounds).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field, replace
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+from numpy.typing import NDArray
+
+from micromech import tensors
+from micromech.errors import CaseFileError, InputError
+from micromech.results import ElasticConstants
+from micromech.rve.causes import (
+    Diagnosis,
+    consistency_reasons,
+    fit_size_error,
+    fraction_for_value,
+    likely_causes,
+    model_label,
+    property_kind,
+    size_error_reason,
+)
+from micromech.rve.tolerances import Band, fibre_band, parse_tolerances, particle_band, ud_base_name
+from micromech.rve.verdicts import (
+    CAUTION,
+    VERDICTS,
+    PropertyCheck,
+    grade_property,
+    worst_verdict,
+)
+
+__all__ = [
+    "CAUTION",
+    "VERDICTS",
+    "CheckResult",
+    "CurveResult",
+    "Diagnosis",
+    "PropertyCheck",
+    "check_case",
+    "consistency_reasons",
+    "expected_properties",
+    "fit_size_error",
+    "fraction_for_value",
+    "grade_property",
+    "likely_causes",
+    "model_label",
+    "property_name",
+    "worst_verdict",
+]
+
+Array = NDArray[np.float64]
+
+_STACK_ARCH = ("crossply", "stack")
+_UD_NAMES = {"x": "E1", "y": "E2", "z": "E3", "xy": "G12", "xz": "G13", "yz": "G23"}
+_STACK_NAMES = {"x": "Ex", "y": "Ey", "z": "Ez", "xy": "Gxy", "xz": "Gxz", "yz": "Gyz"}
+_NU_INDEX = {"x": "1", "y": "2", "z": "3"}
+#: Name -> ElasticConstants attribute (stack results carry Ex as E1 ...).
+_CONST = {
+    **{n: n for n in ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")},
+    "Ex": "E1", "Ey": "E2", "Ez": "E3", "Gxy": "G12", "Gxz": "G13", "Gyz": "G23",
+    "nuxy": "nu12", "nuxz": "nu13", "nuyz": "nu23",
+}
+#: Minor Poisson ratios: nu_ji = nu_ij E_j / E_i.
+_MINOR = {"nu21": ("nu12", "E2", "E1"), "nu31": ("nu13", "E3", "E1"),
+          "nu32": ("nu23", "E3", "E2"), "nuyx": ("nu12", "E2", "E1"),
+          "nuzx": ("nu13", "E3", "E1"), "nuzy": ("nu23", "E3", "E2")}
+_UD_ALL = (*_UD_NAMES.values(), "nu12", "nu13", "nu23", "nu21", "nu31", "nu32")
+_STACK_ALL = (*_STACK_NAMES.values(), "nuxy", "nuxz", "nuyz", "nuyx", "nuzx", "nuzy")
+_VOIGT = {"x": 0, "y": 1, "z": 2, "yz": 3, "xz": 4, "xy": 5}
+_GRID_POINTS = 61
+_HS_MODELS = ("hashin_shtrikman_lower", "hashin_shtrikman_upper")
+
+
+def property_name(architecture: str, direction: str, lateral: str | None = None) -> str:
+    """Name of the property a load case measures.
+
+    Parameters
+    ----------
+    architecture : str
+        ``unidirectional``, ``particulate`` (names E1 ... nu32) or ``crossply``, ``stack``
+        (names Ex ... nuzy).
+    direction : str
+        Load case: x, y, z, xy, xz, yz.
+    lateral : str, optional
+        Lateral axis, for a Poisson ratio nu_{direction, lateral}.
+
+    Returns
+    -------
+    str
+        E.g. ``"E2"``, ``"Gxy"``, ``"nu12"``, ``"nuyx"``.
+
+    Raises
+    ------
+    InputError
+        For an unknown direction or a lateral axis equal to the load axis.
+    """
+    stack = architecture in _STACK_ARCH
+    names = _STACK_NAMES if stack else _UD_NAMES
+    if direction not in names:
+        raise InputError(f"direction = {direction!r}: expected one of {sorted(names)}")
+    if lateral is None:
+        return names[direction]
+    if direction not in _NU_INDEX or lateral not in _NU_INDEX or lateral == direction:
+        raise InputError(
+            f"Poisson ratio of load case {direction!r} needs a lateral axis among x, y, z other "
+            f"than the load axis, got {lateral!r}"
+        )
+    return f"nu{direction}{lateral}" if stack else f"nu{_NU_INDEX[direction]}{_NU_INDEX[lateral]}"
+
+
+def _direction_of(name: str) -> tuple[str | None, str | None]:
+    """(load direction, lateral axis) a property is measured in."""
+    for table in (_UD_NAMES, _STACK_NAMES):
+        for d, n in table.items():
+            if n == name:
+                return d, None
+    if name.startswith("nu") and len(name) == 4:
+        a, b = name[2], name[3]
+        inv = {v: k for k, v in _NU_INDEX.items()}
+        a, b = inv.get(a, a), inv.get(b, b)
+        return a, b
+    if "strength_" in name:
+        return name.rsplit("_", 1)[-1], None
+    return None, None
+
+
+def _const(ec: ElasticConstants, name: str) -> Array | None:
+    if name in _MINOR:
+        nu, ej, ei = _MINOR[name]
+        a, b, c = ec.get(nu), ec.get(ej), ec.get(ei)
+        if a is None or b is None or c is None:
+            return None
+        return np.asarray(a * b / c)
+    attr = _CONST.get(name)
+    return None if attr is None else ec.get(attr)
+
+
+# ------------------------------------------------------------------------------------------
+# what to expect
+
+
+@dataclass(frozen=True)
+class Expectation:
+    """What the constituents, fraction and architecture allow for one property.
+
+    Attributes
+    ----------
+    estimates : Mapping of str to float
+        Estimates by model key (``stack_...`` for stacks), SI.
+    best : str
+        Key of the best estimate.
+    band : Band or None
+        Default expected band.
+    lower_bound, upper_bound : float or None
+        Rigorous bounds.
+    hs_band : (float, float) or None
+        Hashin-Shtrikman band where its assumptions hold.
+    constrained_modulus : float or None
+        C_ii of the best estimate (normal moduli only).
+    fraction_curve : (ndarray, ndarray) or None
+        Fibre fractions and the best estimate at each.
+    """
+
+    estimates: Mapping[str, float]
+    best: str
+    band: Band | None = None
+    lower_bound: float | None = None
+    upper_bound: float | None = None
+    hs_band: tuple[float, float] | None = None
+    constrained_modulus: float | None = None
+    fraction_curve: tuple[Array, Array] | None = None
+
+
+def _layup_angles(case: Any) -> tuple[float, ...]:
+    from micromech.laminate.layup import parse_layup
+
+    rve = case.rve
+    code = rve.layup or (case.laminate.layup if case.laminate is not None else None)
+    if code is None:
+        if rve.architecture == "crossply":
+            return (0.0, 90.0, 90.0, 0.0)
+        raise CaseFileError(
+            f"{case.path or 'case'}: [rve] architecture = 'stack' needs layup = '[...]' in [rve] "
+            "or [laminate]"
+        )
+    return tuple(float(a) for a in parse_layup(code))
+
+
+def _bounds(case: Any, angles: Sequence[float]) -> tuple[Array, Array | None]:
+    """Voigt stiffness and Reuss compliance of the constituents (fibres turned per ply)."""
+    comp = case.composite
+    vf = float(comp.volume_fraction)
+    vv = float(comp.void_fraction)
+    vm = 1.0 - vf - vv
+    Cf = np.asarray(comp.fibre.stiffness(), dtype=np.float64)
+    Cm = np.asarray(comp.matrix.stiffness(), dtype=np.float64)
+    R = tensors.rotation_about_axis(3, np.asarray(angles, dtype=np.float64))
+    Cf_rot = tensors.rotate_stiffness(Cf, R)
+    C_V = vm * Cm + vf * Cf_rot.mean(axis=0)
+    if vv > 0.0:
+        return C_V, None  # a void has no stiffness: the Reuss bound is zero
+    S_R = vm * np.linalg.inv(Cm) + vf * np.linalg.inv(Cf_rot).mean(axis=0)
+    return C_V, S_R
+
+
+def _complete(est: Mapping[str, ElasticConstants]) -> dict[str, ElasticConstants]:
+    return {k: v for k, v in est.items() if v.complete and k not in ("voigt", "reuss")}
+
+
+def _stack(ply: ElasticConstants, angles: Sequence[float]) -> Any:
+    from micromech.laminate.stack import stack_constants
+
+    C = ply.stiffness()
+    n = len(angles)
+    layers = np.broadcast_to(C[..., None, :, :], C.shape[:-2] + (n, 6, 6))
+    return stack_constants(layers, np.full(n, 1.0 / n), angles=np.asarray(angles))
+
+
+def _ti_ply(E1: Any, E2: Any, nu12: Any, G12: Any, nu23: Any) -> ElasticConstants:
+    return ElasticConstants.transversely_isotropic(E1, E2, nu12, G12, nu23=nu23)
+
+
+def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectation]:
+    """Bounds, estimates, bands and diagnosis data for the named properties of a case.
+
+    Parameters
+    ----------
+    case : Case
+        A loaded case with a ``[composite]`` and an ``[rve]`` table.
+    names : sequence of str
+        Property names (E1 ... or Ex ...; strengths are handled by :func:`check_case`).
+
+    Returns
+    -------
+    dict of str to Expectation
+        One entry per elastic property name.
+
+    Raises
+    ------
+    CaseFileError
+        If the case has no composite (fibre, matrix and fraction) or no [rve] table.
+    """
+    from micromech.homogenize import estimate, mori_tanaka
+
+    comp = case.composite
+    if comp is None or case.rve is None:
+        raise CaseFileError(
+            f"{case.path or 'case'}: checking RVE results needs [fibre], [matrix], "
+            "[composite] with a fraction, and [rve]"
+        )
+    arch = case.rve.architecture
+    vf = float(comp.volume_fraction)
+    stack = arch in _STACK_ARCH
+    angles = _layup_angles(case) if stack else (0.0,)
+    est = dict(estimate(comp))
+    # the best estimate over a grid of fractions, for solving the fraction of a value
+    top = min(comp.packing_limit, 1.0 - float(comp.void_fraction)) * 0.98
+    grid = np.linspace(0.0, top, _GRID_POINTS)
+    mt_grid = mori_tanaka(comp.fibre, comp.matrix, grid, comp.inclusion, comp.aspect_ratio,
+                          void_fraction=comp.void_fraction)
+    hs_ok = comp.arrangement in ("random", "hexagonal")
+    if stack:
+        models = {f"stack_{k}": _stack(v, angles) for k, v in _complete(est).items()}
+        consts = {k: r.constants for k, r in models.items()}
+        best = "stack_mori_tanaka"
+        C_best = models[best].stiffness
+        grid_consts = _stack(mt_grid, angles).constants
+        bands = _stack_bands(est, vf, comp.arrangement, angles, names)
+    else:
+        consts = {k: v for k, v in est.items() if k not in ("voigt", "reuss")}
+        best = "mori_tanaka"
+        C_best = est[best].stiffness()
+        grid_consts = mt_grid
+        bands = {}
+    C_V, S_R = _bounds(case, angles)
+    S_V = np.linalg.inv(C_V)
+    out: dict[str, Expectation] = {}
+    for name in names:
+        kind = property_kind(name)
+        values = {k: float(x) for k, ec in consts.items() if (x := _const(ec, name)) is not None
+                  and np.isfinite(x)}
+        bv = values.get(best)
+        direction, _ = _direction_of(name)
+        lb = ub = cmod = None
+        if kind in ("modulus", "shear") and direction in _VOIGT:
+            i = _VOIGT[direction]
+            ub = float(1.0 / S_V[i, i])
+            lb = 0.0 if S_R is None else float(1.0 / S_R[i, i])
+            if kind == "modulus":
+                cmod = float(C_best[i, i])
+        band: Band | None = bands.get(name)
+        if band is None and bv is not None and not stack:
+            if comp.inclusion == "continuous":
+                ht = _const(est["halpin_tsai"], name) if "halpin_tsai" in est else None
+                band = fibre_band(name, bv, vf, comp.arrangement, halpin_tsai=ht)
+            else:
+                band = particle_band(bv, comp.inclusion)
+        hs = None
+        lo_key, hi_key = ((f"stack_{k}" for k in _HS_MODELS) if stack else _HS_MODELS)
+        # square arrays are not transversely isotropic: only the axial constants keep the band
+        applicable = hs_ok or (not stack and name in ("E1", "G12", "G13"))
+        if kind in ("modulus", "shear") and lo_key in values and hi_key in values and applicable:
+            hs = (values[lo_key], values[hi_key])
+        curve_vals = _const(grid_consts, name)
+        fc = None if curve_vals is None else (grid, np.asarray(curve_vals, dtype=np.float64))
+        out[name] = Expectation(
+            estimates=values, best=best, band=band, lower_bound=lb, upper_bound=ub,
+            hs_band=hs, constrained_modulus=cmod, fraction_curve=fc,
+        )
+    return out
+
+
+def _stack_bands(
+    est: Mapping[str, ElasticConstants], vf: float, arrangement: str,
+    angles: Sequence[float], names: Sequence[str],
+) -> dict[str, Band]:
+    """Bands of stack properties: stacks of plies at the ends of their expected bands."""
+    mt = est["mori_tanaka"]
+    ht = est.get("halpin_tsai")
+    ends: dict[str, tuple[Array, Array]] = {}
+    for n in ("E1", "E2", "nu12", "G12", "nu23"):
+        b = fibre_band(n, mt.get(n), vf, arrangement,  # type: ignore[arg-type]
+                       halpin_tsai=None if ht is None else ht.get(n))
+        ends[n] = (b.low, b.high)
+    lo, hi = (lambda n: ends[n][0]), (lambda n: ends[n][1])
+    corners = [
+        _ti_ply(hi("E1"), hi("E2"), lo("nu12"), hi("G12"), lo("nu23")),
+        _ti_ply(lo("E1"), lo("E2"), hi("nu12"), lo("G12"), hi("nu23")),
+        _ti_ply(hi("E1"), hi("E2"), hi("nu12"), hi("G12"), hi("nu23")),
+        _ti_ply(lo("E1"), lo("E2"), lo("nu12"), lo("G12"), lo("nu23")),
+        mt,
+    ]
+    if ht is not None and ht.complete:
+        corners.append(ht)
+    stacks = [_stack(c, angles).constants for c in corners]
+    basis = (f"stacks of plies at the ends of their expected bands (measured spread of "
+             f"Mori-Tanaka against full-field results, {arrangement} arrangement, and "
+             "Halpin-Tsai (xi = 2) for E2)")
+    out: dict[str, Band] = {}
+    for name in names:
+        vals = [v for s in stacks if (v := _const(s, name)) is not None]
+        if vals:
+            out[name] = Band(low=np.asarray(min(vals)), high=np.asarray(max(vals)), basis=basis)
+    return out
+
+
+# ------------------------------------------------------------------------------------------
+# results
+
+
+@dataclass(frozen=True, eq=False)
+class CurveResult:
+    """One load case's curve and its metrics, kept for the report's plots.
+
+    Attributes
+    ----------
+    direction : str
+        Load case.
+    strain, stress : ndarray, shape (n,)
+        The curve, SI.
+    metrics : CurveMetrics
+        Modulus, yield, strength (:mod:`micromech.rve.curves`).
+    source : str
+        The history file.
+    """
+
+    direction: str
+    strain: Array
+    stress: Array
+    metrics: Any
+    source: str = ""
+
+
+@dataclass(frozen=True, eq=False)
+class CheckResult:
+    """The check of one case: a verdict per property, the curves, and notes.
+
+    Attributes
+    ----------
+    case : str
+        Case name.
+    path : Path or None
+        Case file.
+    architecture : str
+        RVE architecture.
+    volume_fraction : float
+        Declared fibre fraction.
+    arrangement : str
+        Fibre arrangement.
+    properties : Mapping of str to PropertyCheck
+        Verdicts by property name.
+    curves : Mapping of str to CurveResult
+        Curves by load direction.
+    notes : tuple of str
+        Case-level remarks (size fit, stiffness symmetry, skipped items).
+    inputs : tuple of Path
+        The case file and every history file read (never written).
+    caution : str
+        The caution every output carries.
+    """
+
+    case: str
+    path: Path | None
+    architecture: str
+    volume_fraction: float
+    arrangement: str
+    properties: Mapping[str, PropertyCheck]
+    curves: Mapping[str, CurveResult] = field(default_factory=dict)
+    notes: tuple[str, ...] = ()
+    inputs: tuple[Path, ...] = ()
+    caution: str = CAUTION
+
+    @property
+    def worst_verdict(self) -> str:
+        """The most severe verdict over all properties."""
+        return worst_verdict(p.verdict for p in self.properties.values())
+
+    @property
+    def exit_code(self) -> int:
+        """1 when any property violates a bound, else 0 (for ``micromech check``)."""
+        return 1 if self.worst_verdict == "violates_bounds" else 0
+
+    def as_dict(self) -> dict[str, Any]:
+        """Return the JSON form (the ``check`` contract of DESIGN.md, plus case details).
+
+        Returns
+        -------
+        dict
+            ``case``, ``case_file``, ``architecture``, ``volume_fraction``, ``arrangement``,
+            ``curves``, ``properties``, ``worst_verdict``, ``notes``, ``caution``.
+        """
+        return {
+            "case": self.case,
+            "case_file": None if self.path is None else str(self.path),
+            "architecture": self.architecture,
+            "volume_fraction": self.volume_fraction,
+            "arrangement": self.arrangement,
+            "curves": {d: c.metrics.as_dict() for d, c in self.curves.items()},
+            "properties": {n: p.as_dict() for n, p in self.properties.items()},
+            "worst_verdict": self.worst_verdict,
+            "notes": list(self.notes),
+            "caution": self.caution,
+        }
+
+
+# ------------------------------------------------------------------------------------------
+# reading the simulated results
+
+
+def _gauge(direction: str, size: Sequence[float]) -> tuple[float, float]:
+    """Return (loaded area, gauge length) by the convention of :mod:`micromech.rve.ingest`."""
+    ax = {"x": 0, "y": 1, "z": 2}
+    if len(direction) == 1:
+        i = ax[direction]
+        o = [k for k in range(3) if k != i]
+        return size[o[0]] * size[o[1]], size[i]
+    i, j = ax[direction[0]], ax[direction[1]]
+    return size[i] * size[3 - i - j], size[j]
+
+
+def _read_curve(lc: Any, size: Sequence[float] | None) -> Any:
+    from micromech.rve.ingest import Curve, read_table
+
+    table = read_table(lc.file, delimiter=lc.delimiter)
+    label = str(lc.file)
+    lateral: dict[str, Array] = {}
+    if lc.mode == "force_displacement":
+        assert size is not None
+        area, gauge = _gauge(lc.direction, size)
+        stress = table.column(lc.force.column, "force column") * lc.force.factor / area
+        strain = (table.column(lc.displacement.column, "displacement column")
+                  * lc.displacement.factor / gauge)
+    else:
+        stress = table.column(lc.stress.column, "stress column") * lc.stress.factor
+        strain = table.column(lc.strain.column, "strain column") * lc.strain.factor
+    for spec in lc.lateral:
+        values = table.column(spec.column, f"lateral {spec.direction} column") * spec.factor
+        if spec.kind == "length":
+            assert size is not None
+            values = values / size["xyz".index(spec.direction)]
+        lateral[spec.direction] = values
+    return Curve(direction=lc.direction, strain=strain, stress=stress, lateral=lateral,
+                 source=label, lines=table.lines)
+
+
+def _strength_limits(case: Any) -> tuple[float | None, float | None]:
+    """(matrix yield, Voigt average of the phase strengths), Pa, where known."""
+    comp = case.composite
+    fs = getattr(comp.fibre, "strengths", None)
+    ms = getattr(comp.matrix, "strengths", None)
+    m_yield = None if ms is None else ms.yield_strength
+    m_strength = None if ms is None else (ms.Xt if ms.Xt is not None else ms.yield_strength)
+    f_strength = None if fs is None else fs.Xt
+    upper = None
+    if m_strength is not None and f_strength is not None:
+        vf = float(comp.volume_fraction)
+        upper = vf * f_strength + (1.0 - vf - float(comp.void_fraction)) * m_strength
+    return m_yield, upper
+
+
+# ------------------------------------------------------------------------------------------
+# the check
+
+
+def check_case(
+    case: Any,
+    *,
+    offset: float | None = None,
+    tolerances: Mapping[str, float] | Sequence[str] | None = None,
+) -> CheckResult:
+    """Check the simulated RVE results of a case file.
+
+    Parameters
+    ----------
+    case : Case or str or Path
+        A loaded case (:func:`micromech.case.load_case`) or the path of a case file.
+    offset : float, optional
+        Strain offset of the yield line; default: the load case's, then ``[check]``'s, then
+        0.002 (common practice, no source). A value given here overrides them all.
+    tolerances : mapping or sequence of ``"NAME=VALUE"``, optional
+        Relative tolerances per property around the best estimate; they replace the default
+        bands (and ``[check] tolerance`` entries of the case).
+
+    Returns
+    -------
+    CheckResult
+        Verdicts, curves and notes; ``exit_code`` is 1 when a bound is violated.
+
+    Raises
+    ------
+    CaseFileError
+        If the case has no [rve] results or no composite to compare with.
+    InputError
+        For a bad tolerance or offset.
+    DataFileError
+        For an unreadable history file.
+
+    Examples
+    --------
+    >>> r = check_case("data/demo/crossply.toml")  # doctest: +SKIP
+    >>> r.worst_verdict  # doctest: +SKIP
+    'consistent'
+    """
+    from micromech.case import load_case
+    from micromech.rve.curves import metrics_of_curve
+    from micromech.rve.stiffness import stiffness_from_load_cases, stiffness_from_matrix
+
+    if isinstance(case, str | Path):
+        case = load_case(case)
+    where = str(case.path or case.name or "case")
+    rve = case.rve
+    if rve is None or (not rve.load_cases and rve.stiffness is None):
+        raise CaseFileError(f"{where}: no [rve] results to check (give [[rve.load_case]] "
+                            "entries or [rve.stiffness])")
+    if case.composite is None:
+        raise CaseFileError(f"{where}: checking RVE results needs [fibre], [matrix] and "
+                            "[composite] with a fraction")
+    if offset is not None and not (np.isfinite(offset) and 0.0 < offset < 1.0):
+        raise InputError(f"offset = {offset!r} must be a strain between 0 and 1 (e.g. 0.002)")
+    tol = dict(parse_tolerances(case.check.get("tolerance", {})))
+    if tolerances is not None:
+        tol.update(parse_tolerances(tolerances))
+    arch = rve.architecture
+    size = rve.size
+    notes: list[str] = []
+    values: dict[str, float] = {}
+    contexts: dict[str, Diagnosis] = {}
+    curves: dict[str, CurveResult] = {}
+    inputs: list[Path] = [] if case.path is None else [Path(case.path)]
+
+    # 1. curves from histories
+    averaged_stress: list[Array] = []
+    averaged_strain: list[Array] = []
+    for lc in rve.load_cases:
+        if lc.mode == "averaged":
+            averaged_stress.append(lc.stress_values)
+            averaged_strain.append(lc.strain_values)
+            continue
+        inputs.append(Path(lc.file))
+        curve = _read_curve(lc, size)
+        off = offset if offset is not None else (
+            lc.offset if lc.offset is not None else case.check.get("offset", 0.002))
+        rng = lc.strain_range or case.check.get("strain_range")
+        m = metrics_of_curve(curve, offset=off, fit_range=rng)
+        curves[lc.direction] = CurveResult(lc.direction, curve.strain, curve.stress, m,
+                                           str(lc.file))
+        name = property_name(arch, lc.direction)
+        values[name] = m.modulus
+        contexts[name] = Diagnosis(direction=lc.direction, size=size, source=lc.mode)
+        for axis, nu in m.poisson.items():
+            pname = property_name(arch, lc.direction, axis)
+            values[pname] = nu
+            contexts[pname] = Diagnosis(direction=lc.direction, lateral=axis, size=size,
+                                        source=lc.mode)
+        if m.yield_strength is not None:
+            values[f"yield_strength_{lc.direction}"] = abs(m.yield_strength)
+        values[f"ultimate_strength_{lc.direction}"] = abs(m.ultimate_strength)
+        contexts[f"ultimate_strength_{lc.direction}"] = Diagnosis(
+            direction=lc.direction, size=size, source=lc.mode)
+        contexts[f"yield_strength_{lc.direction}"] = contexts[
+            f"ultimate_strength_{lc.direction}"]
+        if not m.failed:
+            notes.append(f"Load case {lc.direction}: the run stopped before failure, so "
+                         f"ultimate_strength_{lc.direction} is only a lower limit.")
+
+    # 2. stiffness from averaged load cases or a full matrix
+    eff = None
+    if averaged_stress:
+        eff = stiffness_from_load_cases(np.vstack(averaged_stress), np.vstack(averaged_strain))
+    elif rve.stiffness is not None:
+        eff = stiffness_from_matrix(rve.stiffness)
+    if eff is not None:
+        src = "stiffness" if rve.stiffness is not None and not averaged_stress else "stress_strain"
+        names = (_STACK_ALL if arch in _STACK_ARCH else _UD_ALL)
+        for n in names:
+            v = _const(eff.constants, n)
+            if n not in values and v is not None:
+                values[n] = float(v)
+                d, lat = _direction_of(n)
+                contexts[n] = Diagnosis(direction=d, lateral=lat, source=src)
+        if eff.symmetry_error > 0.05:
+            notes.append(f"The RVE stiffness is not symmetric ({100 * eff.symmetry_error:.1f} % "
+                         "relative asymmetry): its load cases disagree (boundary conditions or "
+                         "averaging); the constants use its symmetric part.")
+        if not eff.positive_definite:
+            notes.append("The symmetric part of the RVE stiffness is not positive definite: no "
+                         "stable material has it; check the units and the load cases.")
+
+    wanted = case.check.get("properties")
+    if wanted:
+        values = {k: v for k, v in values.items() if k in wanted}
+
+    # 3. grade
+    elastic = [n for n in values if property_kind(n) != "strength"]
+    expect = expected_properties(case, elastic)
+    vf = float(case.composite.volume_fraction)
+    keep = case.check.get("models")
+    results: dict[str, PropertyCheck] = {}
+    for n in elastic:
+        e = expect[n]
+        ctx = contexts.get(n, Diagnosis())
+        ctx = Diagnosis(direction=ctx.direction, lateral=ctx.lateral, size=ctx.size,
+                        source=ctx.source, fraction=vf, fraction_curve=e.fraction_curve,
+                        constrained_modulus=e.constrained_modulus)
+        est = dict(e.estimates)
+        if keep:
+            est = {k: v for k, v in est.items()
+                   if k == e.best or k.removeprefix("stack_") in keep}
+        results[n] = grade_property(
+            n, values[n], lower_bound=e.lower_bound, upper_bound=e.upper_bound,
+            hs_band=e.hs_band, estimates=est, best=e.best if e.best in est else None,
+            band=e.band, tolerance=_tolerance_for(n, tol, arch), context=ctx,
+        )
+    m_yield, s_upper = _strength_limits(case)
+    for n in (k for k in values if property_kind(k) == "strength"):
+        direction = n.rsplit("_", 1)[-1]
+        normal = direction in ("x", "y", "z")
+        failed = n.startswith("yield") or curves[direction].metrics.failed
+        results[n] = grade_property(
+            n, values[n], lower_bound=m_yield if (normal and failed) else None,
+            upper_bound=s_upper if normal else None, estimates={}, best=None,
+            bounds_rigorous=False, context=contexts.get(n),
+        )
+
+    # 4. cross-checks
+    _cross_checks(results, values, case, arch, size, contexts, notes)
+    order = {n: i for i, n in enumerate(_ORDER)}
+    ordered = dict(sorted(results.items(), key=lambda kv: order.get(kv[0], len(order))))
+    return CheckResult(
+        case=case.name, path=case.path, architecture=arch, volume_fraction=vf,
+        arrangement=case.composite.arrangement, properties=ordered, curves=curves,
+        notes=tuple(notes), inputs=tuple(inputs),
+    )
+
+
+_ORDER = (
+    *_UD_ALL, *_STACK_ALL,
+    *(f"yield_strength_{d}" for d in _VOIGT), *(f"ultimate_strength_{d}" for d in _VOIGT),
+)
+
+
+def _tolerance_for(name: str, tol: Mapping[str, float], arch: str) -> float | None:
+    if name in tol:
+        return tol[name]
+    if arch not in _STACK_ARCH and ud_base_name(name) in tol:
+        return tol[ud_base_name(name)]
+    return None
+
+
+def _cross_checks(
+    results: dict[str, PropertyCheck], values: Mapping[str, float], case: Any, arch: str,
+    size: Sequence[float] | None, contexts: Mapping[str, Diagnosis], notes: list[str],
+) -> None:
+    stack = arch in _STACK_ARCH
+    symmetric = True
+    if stack:
+        angles = _layup_angles(case)
+        turned = sorted(((a + 90.0) % 180.0) for a in angles)
+        symmetric = np.allclose(sorted(a % 180.0 for a in angles), turned)
+    for name, reasons in consistency_reasons(
+        values, stack=stack, symmetric=symmetric, arrangement=case.composite.arrangement
+    ).items():
+        results[name] = results[name].with_reasons(reasons, "suspect")
+    # one wrong cell size shows in all three normal load cases
+    normal = [property_name(arch, d) for d in ("x", "y", "z")]
+    if size is not None and all(
+        n in results and results[n].best_estimate and contexts.get(n, Diagnosis()).source
+        == "force_displacement" for n in normal
+    ):
+        ratios = {d: results[n].value / float(results[n].best_estimate or 1.0)
+                  for d, n in zip(("x", "y", "z"), normal, strict=True)}
+        fit = fit_size_error(ratios, size)
+        if fit is not None:
+            text = size_error_reason(fit[0], fit[1], size)
+            notes.append(text)
+            for n in normal:
+                r = results[n]
+                if r.verdict != "consistent":  # right after the verdict: the likeliest cause
+                    reasons = (r.reasons[0], f"Across load cases: {text}", *r.reasons[1:])
+                    results[n] = replace(r, reasons=reasons)

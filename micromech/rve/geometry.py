@@ -1,0 +1,1064 @@
+"""Fibre arrangements for an RVE: periodic square and hexagonal cells and random periodic cells.
+
+Every generator returns a frozen :class:`FibreArrangement`: the fibre centres in a periodic
+rectangular cell ``[0, Lx) x [0, Ly)`` (metres), the cell size, the achieved fibre volume
+fraction, nearest-neighbour statistics and the record needed to reproduce it (method, seed).
+:meth:`FibreArrangement.to_csv` and :meth:`FibreArrangement.to_json` write the centres for a
+mesher, together with the periodic images of the fibres that cut the cell faces.
+
+Packing limits (``d`` fibre diameter, ``g`` minimum gap between fibre surfaces):
+
+========== ============================================ ================================
+packing    limit of the fibre volume fraction           source
+========== ============================================ ================================
+square     ``pi/4 (d/(d+g))^2``  (0.7854 at g = 0)      exact geometry
+hexagonal  ``pi/(2 sqrt 3) (d/(d+g))^2``  (0.9069)      exact geometry
+random     ``0.78 (d/(d+g))^2``  (0.7075 at g = 0.05 d) measured with this generator
+random     ``0.72 (d/(d+g))^2`` for fewer than 20      measured with this generator
+           fibres (0.6531 at g = 0.05 d)
+========== ============================================ ================================
+
+The random limits were measured with :func:`random_cell` (10 seeds per case, gaps 0, 0.05 d and
+0.1 d): with 20 to 560 fibres every run reached an exclusion fraction ``vf ((d+g)/d)^2`` of
+0.78, while 0.80 failed for some seeds and counts (13, 17, 19, 30 fibres); small square cells
+frustrate the packing (7 fibres fail from 0.74, 10 and 13 fibres at 0.76 to 0.78), and 6 to 19
+fibres all reached 0.72. Random close packing of equal discs is near 0.82 to 0.84 [4]_.
+
+References
+----------
+.. [1] Hull D, Clyne TW (1996). An Introduction to Composite Materials, 2nd ed., Cambridge
+   University Press, section 1.2: fibre fractions of square and hexagonal arrays, pi/4 and
+   pi/(2 sqrt 3) at contact (from memory).
+.. [2] Feder J (1980). Random sequential adsorption. J. Theor. Biol. 87:237-254; jamming
+   coverage of discs about 0.547 (from memory).
+.. [3] Lubachevsky BD, Stillinger FH (1990). Geometric properties of random disk packings.
+   J. Stat. Phys. 60:561-583 (from memory).
+.. [4] O'Hern CS, Silbert LE, Liu AJ, Nagel SR (2003). Jamming at zero temperature and zero
+   applied stress: the epitome of disorder. Phys. Rev. E 68:011306; minimisation of a
+   harmonic overlap energy of soft discs, jamming near 0.84 in two dimensions (from memory).
+.. [5] Metropolis N, Rosenbluth AW, Rosenbluth MN, Teller AH, Teller E (1953). Equation of state
+   calculations by fast computing machines. J. Chem. Phys. 21:1087-1092; Monte Carlo moves of
+   hard discs (from memory).
+.. [6] Trias D, Costa J, Turon A, Hurtado JE (2006). Determination of an appropriate
+   representative volume element for probabilistic micromechanics of fibre-reinforced
+   polymers. Acta Materialia 54(13):3471-3484; a cell side of at least 50 fibre radii
+   (delta = L/R >= 50) for statistically representative local fields (from memory).
+.. [7] Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003). Determination of the size of
+   the representative volume element for random composites: statistical and numerical
+   approach. Int. J. Solids Struct. 40(13-14):3647-3679 (from memory).
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import tempfile
+from collections.abc import Callable
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from micromech.errors import FractionError, InputError
+from micromech.units import parse_quantity
+
+__all__ = [
+    "SQUARE_LIMIT",
+    "HEXAGONAL_LIMIT",
+    "RANDOM_EFFECTIVE_LIMIT",
+    "RANDOM_SMALL_CELL_LIMIT",
+    "SMALL_CELL_FIBRES",
+    "GUIDANCE_DELTA",
+    "CAUTION",
+    "FibreArrangement",
+    "NeighbourStats",
+    "RveGuidance",
+    "packing_limit",
+    "square_cell",
+    "hexagonal_cell",
+    "random_cell",
+    "nearest_neighbour_stats",
+    "rve_size_guidance",
+    "plot_arrangement",
+]
+
+Array = NDArray[np.float64]
+Progress = Callable[[str, int, int], None]
+
+#: Fibre fraction of a square array at contact, pi/4 (exact geometry; Hull and Clyne 1996).
+SQUARE_LIMIT: float = math.pi / 4.0
+#: Fibre fraction of a hexagonal array at contact, pi/(2 sqrt 3) (exact geometry).
+HEXAGONAL_LIMIT: float = math.pi / (2.0 * math.sqrt(3.0))
+#: Practical limit of :func:`random_cell` on the fraction of the exclusion discs (diameter
+#: d + gap), cells of 20 fibres or more: all measured runs reached 0.78, some failed at 0.80.
+RANDOM_EFFECTIVE_LIMIT: float = 0.78
+#: The same for cells of fewer than :data:`SMALL_CELL_FIBRES` fibres (all reached 0.72).
+RANDOM_SMALL_CELL_LIMIT: float = 0.72
+#: Below this many fibres a random cell uses :data:`RANDOM_SMALL_CELL_LIMIT`.
+SMALL_CELL_FIBRES: int = 20
+#: Cell side in fibre radii for statistically representative fields (Trias et al. 2006,
+#: from memory).
+GUIDANCE_DELTA: float = 50.0
+#: The caution every written or printed output carries.
+CAUTION: str = (
+    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
+    "and a licensed engineer decide."
+)
+
+_METHODS = ("square", "hexagonal", "random")
+_MIN_SIDE = 2.5  # random cells: side >= 2.5 (d + gap), so each pair meets once across the faces
+_FEASIBLE = 1.0 + 1e-9  # internal units of (d + gap): accepted centre distance
+_TARGET = 1.0 + 1e-3  # internal units: relaxation aims a little beyond the gap
+
+
+# --- results ---------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True, eq=False)
+class NeighbourStats:
+    """Nearest-neighbour statistics of a periodic fibre arrangement.
+
+    Attributes
+    ----------
+    n_fibres : int
+        Number of fibres in the cell.
+    distance_mean, distance_min, distance_max, distance_std : float
+        Centre distance from each fibre to its nearest neighbour (periodic images included), in
+        fibre diameters.
+    gap_mean, gap_min, gap_std : float
+        The same less one diameter: the clear gap between fibre surfaces, in fibre diameters.
+    distances : ndarray, shape (N,)
+        Nearest-neighbour centre distance of each fibre, m.
+    """
+
+    n_fibres: int
+    distance_mean: float
+    distance_min: float
+    distance_max: float
+    distance_std: float
+    gap_mean: float
+    gap_min: float
+    gap_std: float
+    distances: Array
+
+    def as_dict(self) -> dict[str, Any]:
+        """Return the statistics as a JSON-ready dict (distances and gaps in diameters)."""
+        return {
+            "n_fibres": self.n_fibres,
+            "distance_mean": self.distance_mean,
+            "distance_min": self.distance_min,
+            "distance_max": self.distance_max,
+            "distance_std": self.distance_std,
+            "gap_mean": self.gap_mean,
+            "gap_min": self.gap_min,
+            "gap_std": self.gap_std,
+            "unit": "fibre diameters",
+        }
+
+
+@dataclass(frozen=True)
+class RveGuidance:
+    """Cell size of an arrangement against published guidance on statistical RVE size.
+
+    Attributes
+    ----------
+    delta : float
+        Smaller cell side over the fibre radius, L/R.
+    required_delta : float
+        The guidance, L/R >= 50 (Trias et al. 2006, from memory).
+    verdict : str
+        ``"adequate"``, ``"small"``, or ``"not_applicable"`` for periodic square and hexagonal
+        arrays (their unit cell is exact for the idealised array).
+    fibres_for_guidance : int
+        Number of fibres of a square random cell of side 50 R at the same fraction.
+    message : str
+        One plain sentence for a table.
+    references : tuple of str
+        The sources.
+    """
+
+    delta: float
+    required_delta: float
+    verdict: str
+    fibres_for_guidance: int
+    message: str
+    references: tuple[str, ...]
+
+    def as_dict(self) -> dict[str, Any]:
+        """Return the guidance as a JSON-ready dict."""
+        return {
+            "delta": self.delta,
+            "required_delta": self.required_delta,
+            "verdict": self.verdict,
+            "fibres_for_guidance": self.fibres_for_guidance,
+            "message": self.message,
+            "references": list(self.references),
+        }
+
+
+@dataclass(frozen=True, eq=False)
+class FibreArrangement:
+    """Fibre centres in a periodic rectangular cell, with how they were made.
+
+    Attributes
+    ----------
+    centres : ndarray, shape (N, 2)
+        Fibre centres, m, wrapped into ``[0, Lx) x [0, Ly)``. Read-only.
+    diameter : float
+        Fibre diameter, m.
+    cell_size : tuple of float
+        ``(Lx, Ly)``, m.
+    volume_fraction : float
+        Achieved fibre volume fraction, ``N pi d^2 / (4 Lx Ly)``.
+    target_fraction : float
+        The fraction asked for (differs from the achieved one only for a random cell of given
+        size, where the number of fibres is rounded).
+    min_gap : float
+        Required smallest clear gap between fibre surfaces, m.
+    seed : int or None
+        Seed of ``numpy.random.default_rng`` (random cells); ``None`` for regular arrays.
+    method : str
+        ``"square"``, ``"hexagonal"`` or ``"random"``.
+    stats : NeighbourStats
+        Nearest-neighbour statistics.
+    details : dict
+        Generator record (iterations, Monte Carlo acceptance, ...).
+    """
+
+    centres: Array
+    diameter: float
+    cell_size: tuple[float, float]
+    volume_fraction: float
+    target_fraction: float
+    min_gap: float
+    seed: int | None
+    method: str
+    stats: NeighbourStats
+    details: dict[str, Any] = field(default_factory=dict)
+
+    def __post_init__(self) -> None:
+        c = np.array(self.centres, dtype=np.float64).reshape(-1, 2)
+        c.flags.writeable = False
+        object.__setattr__(self, "centres", c)
+
+    @property
+    def radius(self) -> float:
+        """Fibre radius, m."""
+        return 0.5 * self.diameter
+
+    @property
+    def n_fibres(self) -> int:
+        """Number of fibres in the cell (images not counted)."""
+        return int(self.centres.shape[0])
+
+    def images(self) -> tuple[Array, NDArray[np.int64]]:
+        """Periodic images of the fibres that cut the cell faces.
+
+        An image is the fibre shifted by ``(i Lx, j Ly)``, ``i, j in {-1, 0, 1}``, not both 0,
+        whose disc overlaps the open cell (a disc that only touches a face is left out).
+
+        Returns
+        -------
+        centres : ndarray, shape (M, 2)
+            Image centres, m (outside the cell).
+        fibre : ndarray of int, shape (M,)
+            Index of the fibre each image copies.
+        """
+        lx, ly = self.cell_size
+        shifts = np.array(
+            [(i, j) for i in (-1, 0, 1) for j in (-1, 0, 1) if (i, j) != (0, 0)], dtype=np.float64
+        ) * np.array([lx, ly])
+        cand = self.centres[None, :, :] + shifts[:, None, :]  # (8, N, 2)
+        ex = np.maximum(np.maximum(-cand[..., 0], cand[..., 0] - lx), 0.0)
+        ey = np.maximum(np.maximum(-cand[..., 1], cand[..., 1] - ly), 0.0)
+        cuts = np.hypot(ex, ey) < self.radius
+        s_idx, f_idx = np.nonzero(cuts)
+        order = np.lexsort((s_idx, f_idx))
+        return cand[s_idx[order], f_idx[order]], f_idx[order].astype(np.int64)
+
+    def circles(self) -> tuple[Array, NDArray[np.int64], NDArray[np.bool_]]:
+        """All circles a mesher needs: the fibres, then the images that cut the faces.
+
+        Returns
+        -------
+        centres : ndarray, shape (N + M, 2)
+            Circle centres, m.
+        fibre : ndarray of int, shape (N + M,)
+            Fibre index (an image carries the index of the fibre it copies).
+        image : ndarray of bool, shape (N + M,)
+            True for the images.
+        """
+        img, parent = self.images()
+        n = self.n_fibres
+        centres = np.vstack([self.centres, img])
+        fibre = np.concatenate([np.arange(n, dtype=np.int64), parent])
+        image = np.concatenate([np.zeros(n, dtype=bool), np.ones(parent.size, dtype=bool)])
+        return centres, fibre, image
+
+    def as_dict(self) -> dict[str, Any]:
+        """Return the arrangement as a JSON-ready dict, SI units (m).
+
+        Returns
+        -------
+        dict
+            Keys ``method``, ``seed``, ``diameter``, ``radius``, ``cell_size`` ``[Lx, Ly]``,
+            ``volume_fraction``, ``target_fraction``, ``min_gap``, ``n_fibres``, ``n_images``,
+            ``circles`` (list of ``{"fibre", "x", "y", "radius", "image"}``: the fibres, then
+            the images of the fibres that cut the faces), ``stats`` (in diameters),
+            ``rve_size`` (see :func:`rve_size_guidance`), ``details``, ``caution``.
+        """
+        centres, fibre, image = self.circles()
+        r = self.radius
+        return {
+            "method": self.method,
+            "seed": self.seed,
+            "diameter": self.diameter,
+            "radius": r,
+            "cell_size": [self.cell_size[0], self.cell_size[1]],
+            "volume_fraction": self.volume_fraction,
+            "target_fraction": self.target_fraction,
+            "min_gap": self.min_gap,
+            "n_fibres": self.n_fibres,
+            "n_images": int(image.sum()),
+            "circles": [
+                {"fibre": int(f), "x": float(c[0]), "y": float(c[1]), "radius": r, "image": bool(m)}
+                for c, f, m in zip(centres, fibre, image, strict=True)
+            ],
+            "stats": self.stats.as_dict(),
+            "rve_size": rve_size_guidance(self).as_dict(),
+            "details": dict(self.details),
+            "caution": CAUTION,
+        }
+
+    def to_json(self, path: str | os.PathLike[str]) -> Path:
+        """Write :meth:`as_dict` as JSON (SI units), replacing an existing file atomically.
+
+        Parameters
+        ----------
+        path : str or path-like
+            Output file.
+
+        Returns
+        -------
+        Path
+            The path written.
+        """
+        text = json.dumps(self.as_dict(), indent=2, allow_nan=False) + "\n"
+        return _write_atomic(Path(path), text)
+
+    def to_csv(self, path: str | os.PathLike[str], *, unit: str = "um") -> Path:
+        """Write the circles as CSV for a mesher, replacing an existing file atomically.
+
+        Lines starting with ``#`` describe the cell (method, seed, cell size, fraction, caution).
+        Then one header line and one row per circle, the fibres first, then the images of the
+        fibres that cut the cell faces. Columns:
+
+        ``fibre``
+            Fibre index, 0-based; an image row repeats the index of the fibre it copies.
+        ``x_<unit>``, ``y_<unit>``
+            Centre; the cell is ``[0, Lx] x [0, Ly]``, so image centres lie outside it.
+        ``radius_<unit>``
+            Fibre radius.
+        ``image``
+            0 for a fibre, 1 for a periodic image.
+
+        Parameters
+        ----------
+        path : str or path-like
+            Output file.
+        unit : str
+            Length unit of the coordinates (``"um"``, ``"mm"``, ``"m"``, ...).
+
+        Returns
+        -------
+        Path
+            The path written.
+        """
+        factor = parse_quantity(f"1 {unit}", "length", "unit")
+        if not factor > 0.0:
+            raise InputError(f"unit: {unit!r} must be a positive length unit")
+        name = unit.strip().replace(" ", "")
+        centres, fibre, image = self.circles()
+        lx, ly = self.cell_size
+        lines = [
+            "# fibre centres of a periodic RVE cell; images of fibres cutting the faces flagged",
+            f"# method: {self.method}; seed: {self.seed}",
+            f"# cell: x from 0 to {lx / factor:.12g}, y from 0 to {ly / factor:.12g} {name}",
+            f"# fibre diameter: {self.diameter / factor:.12g} {name}; fibres: {self.n_fibres}; "
+            f"images: {int(image.sum())}",
+            f"# volume fraction: {self.volume_fraction:.10g}; "
+            f"required min gap: {self.min_gap / factor:.12g} {name}",
+            f"# {CAUTION}",
+            f"fibre,x_{name},y_{name},radius_{name},image",
+        ]
+        r = self.radius / factor
+        for c, f, m in zip(centres / factor, fibre, image, strict=True):
+            lines.append(f"{int(f)},{c[0]:.12g},{c[1]:.12g},{r:.12g},{int(m)}")
+        return _write_atomic(Path(path), "\n".join(lines) + "\n")
+
+
+# --- limits and validation ------------------------------------------------------------------
+
+
+def packing_limit(
+    method: str, diameter: ArrayLike, min_gap: ArrayLike = 0.0, n_fibres: int | None = None
+) -> Array:
+    """Largest fibre fraction a packing method reaches with a minimum gap.
+
+    Parameters
+    ----------
+    method : str
+        ``"square"``, ``"hexagonal"`` or ``"random"``.
+    diameter : array_like, shape (...)
+        Fibre diameter, m.
+    min_gap : array_like, shape (...)
+        Smallest clear gap between fibre surfaces, m.
+    n_fibres : int, optional
+        Random cells: the number of fibres (fewer than 20 lowers the limit); ``None`` for a
+        large cell.
+
+    Returns
+    -------
+    ndarray, shape (...)
+        ``limit0 (d / (d + g))^2`` with ``limit0`` = pi/4 (square), pi/(2 sqrt 3) (hexagonal),
+        :data:`RANDOM_EFFECTIVE_LIMIT` (random, 0.78) or :data:`RANDOM_SMALL_CELL_LIMIT`
+        (random, fewer than 20 fibres, 0.72).
+
+    References
+    ----------
+    Hull and Clyne (1996), section 1.2 (from memory); the random limit is measured here.
+    """
+    if method not in _METHODS:
+        raise InputError(f"method: {method!r} is not one of {list(_METHODS)}")
+    d = np.asarray(diameter, dtype=np.float64)
+    g = np.asarray(min_gap, dtype=np.float64)
+    return np.asarray(_base_limit(method, n_fibres)[0] * (d / (d + g)) ** 2, dtype=np.float64)
+
+
+def _base_limit(method: str, n_fibres: int | None) -> tuple[float, str]:
+    if method == "square":
+        return SQUARE_LIMIT, "pi/4"
+    if method == "hexagonal":
+        return HEXAGONAL_LIMIT, "pi/(2 sqrt 3)"
+    if n_fibres is not None and n_fibres < SMALL_CELL_FIBRES:
+        return RANDOM_SMALL_CELL_LIMIT, (f"{RANDOM_SMALL_CELL_LIMIT:g} (practical, fewer than "
+                                         f"{SMALL_CELL_FIBRES} fibres)")
+    return RANDOM_EFFECTIVE_LIMIT, f"{RANDOM_EFFECTIVE_LIMIT:g} (practical)"
+
+
+def _length(value: Any, field_name: str, *, allow_zero: bool) -> float:
+    x = parse_quantity(value, "length", field_name)
+    if not math.isfinite(x) or x < 0.0 or (x == 0.0 and not allow_zero):
+        rule = "must be >= 0" if allow_zero else "must be > 0"
+        raise InputError(f"{field_name} = {value!r} {rule} (a finite length)")
+    return x
+
+
+def _fraction(vf: Any, method: str, diameter: float, min_gap: float) -> float:
+    if isinstance(vf, bool) or np.ndim(vf) != 0:
+        raise FractionError(f"volume_fraction = {vf!r} must be a single number")
+    try:
+        v = float(vf)
+    except (TypeError, ValueError):
+        raise FractionError(f"volume_fraction = {vf!r} must be a number") from None
+    if not math.isfinite(v) or v <= 0.0:
+        raise FractionError(f"volume_fraction = {vf!r} must be > 0 and finite")
+    _check_limit(v, method, diameter, min_gap)
+    return v
+
+
+def _check_limit(
+    v: float, method: str, diameter: float, min_gap: float, n_fibres: int | None = None
+) -> None:
+    limit = float(packing_limit(method, diameter, min_gap, n_fibres))
+    if v > limit * (1.0 + 1e-12):
+        raise FractionError(
+            f"volume_fraction = {v:.6g} is above the {method} packing limit {limit:.4f} "
+            f"= {_base_limit(method, n_fibres)[1]} x (d/(d+gap))^2 for gap = "
+            f"{min_gap / diameter:.4g} d"
+        )
+
+
+def _count(value: Any, field_name: str) -> int:
+    if isinstance(value, bool) or not isinstance(value, int | np.integer) or value < 1:
+        raise InputError(f"{field_name} = {value!r} must be a whole number >= 1")
+    return int(value)
+
+
+# --- regular arrays -------------------------------------------------------------------------
+
+
+def square_cell(
+    vf: float, diameter: float | str, *, n_per_side: int = 1, min_gap: float | str = 0.0
+) -> FibreArrangement:
+    """Periodic cell of a square fibre array at a given fraction.
+
+    The cell is square, side ``L = n s`` with centre spacing ``s = d sqrt(pi / (4 vf))``; the
+    centres are ``((i + 1/2) s, (j + 1/2) s)``, so with one fibre per side it sits whole in the
+    middle of the cell.
+
+    Parameters
+    ----------
+    vf : float
+        Fibre volume fraction, ``0 < vf <= pi/4 (d/(d+g))^2``.
+    diameter : float or str
+        Fibre diameter, m (or a string such as ``"7 um"``).
+    n_per_side : int
+        Fibres along each side (``n_per_side**2`` fibres).
+    min_gap : float or str
+        Smallest clear gap between fibres that must remain, m.
+
+    Returns
+    -------
+    FibreArrangement
+        ``method = "square"``; the achieved fraction equals ``vf``.
+
+    Raises
+    ------
+    FractionError
+        If ``vf <= 0`` or above the square limit with the gap.
+    InputError
+        If the diameter is not positive, the gap negative or ``n_per_side < 1``.
+
+    References
+    ----------
+    Hull and Clyne (1996), section 1.2: ``vf = (pi/4)(d/s)^2`` (from memory).
+
+    Examples
+    --------
+    >>> a = square_cell(0.5, 7e-6)
+    >>> round(a.volume_fraction, 12), a.n_fibres
+    (0.5, 1)
+    """
+    d = _length(diameter, "diameter", allow_zero=False)
+    g = _length(min_gap, "min_gap", allow_zero=True)
+    v = _fraction(vf, "square", d, g)
+    n = _count(n_per_side, "n_per_side")
+    s = d * math.sqrt(math.pi / (4.0 * v))
+    k = (np.arange(n, dtype=np.float64) + 0.5) * s
+    xx, yy = np.meshgrid(k, k, indexing="ij")
+    centres = np.column_stack([xx.ravel(), yy.ravel()])
+    return _arrangement(centres, d, (n * s, n * s), v, g, None, "square", {"spacing": s})
+
+
+def hexagonal_cell(
+    vf: float, diameter: float | str, *, n_per_side: int = 1, min_gap: float | str = 0.0
+) -> FibreArrangement:
+    """Periodic rectangular cell of a hexagonal fibre array at a given fraction.
+
+    The repeating rectangle has sides ``s`` and ``s sqrt 3`` and holds two fibres: one at the
+    corner (four quarter discs, so its images cut the faces) and one in the middle. The centre
+    spacing is ``s = d sqrt(pi / (2 sqrt 3 vf))``.
+
+    Parameters
+    ----------
+    vf : float
+        Fibre volume fraction, ``0 < vf <= pi/(2 sqrt 3) (d/(d+g))^2``.
+    diameter : float or str
+        Fibre diameter, m.
+    n_per_side : int
+        Repeats of the rectangle in each direction (``2 n_per_side**2`` fibres).
+    min_gap : float or str
+        Smallest clear gap between fibres that must remain, m.
+
+    Returns
+    -------
+    FibreArrangement
+        ``method = "hexagonal"``; the achieved fraction equals ``vf``.
+
+    Raises
+    ------
+    FractionError
+        If ``vf <= 0`` or above the hexagonal limit with the gap.
+    InputError
+        If the diameter is not positive, the gap negative or ``n_per_side < 1``.
+
+    References
+    ----------
+    Hull and Clyne (1996), section 1.2: ``vf = (pi/(2 sqrt 3))(d/s)^2`` (from memory).
+
+    Examples
+    --------
+    >>> a = hexagonal_cell(0.6, 7e-6)
+    >>> round(a.volume_fraction, 12), a.n_fibres
+    (0.6, 2)
+    """
+    d = _length(diameter, "diameter", allow_zero=False)
+    g = _length(min_gap, "min_gap", allow_zero=True)
+    v = _fraction(vf, "hexagonal", d, g)
+    n = _count(n_per_side, "n_per_side")
+    s = d * math.sqrt(math.pi / (2.0 * math.sqrt(3.0) * v))
+    h = s * math.sqrt(3.0)
+    base = np.array([[0.0, 0.0], [0.5 * s, 0.5 * h]])
+    i, j = np.meshgrid(np.arange(n), np.arange(n), indexing="ij")
+    offsets = np.column_stack([i.ravel() * s, j.ravel() * h])
+    centres = (offsets[:, None, :] + base[None, :, :]).reshape(-1, 2)
+    return _arrangement(centres, d, (n * s, n * h), v, g, None, "hexagonal", {"spacing": s})
+
+
+def _arrangement(
+    centres: Array,
+    d: float,
+    cell: tuple[float, float],
+    target: float,
+    g: float,
+    seed: int | None,
+    method: str,
+    details: dict[str, Any],
+) -> FibreArrangement:
+    box = np.array(cell)
+    c = np.mod(centres, box)
+    c = np.where(c >= box, 0.0, c)
+    achieved = c.shape[0] * math.pi * d * d / (4.0 * cell[0] * cell[1])
+    stats = nearest_neighbour_stats(c, cell, d)
+    return FibreArrangement(
+        centres=c,
+        diameter=d,
+        cell_size=(float(cell[0]), float(cell[1])),
+        volume_fraction=float(achieved),
+        target_fraction=float(target),
+        min_gap=g,
+        seed=seed,
+        method=method,
+        stats=stats,
+        details=details,
+    )
+
+
+# --- random arrangement ---------------------------------------------------------------------
+
+
+def random_cell(
+    vf: float,
+    diameter: float | str,
+    *,
+    n_fibres: int | None = None,
+    cell_size: float | str | tuple[float | str, float | str] | None = None,
+    min_gap: float | str | None = None,
+    seed: int | None = None,
+    max_iterations: int = 5000,
+    shake_sweeps: int = 200,
+    progress: Progress | None = None,
+) -> FibreArrangement:
+    """Random periodic fibre arrangement with a minimum gap, reproducible from a seed.
+
+    Three steps, all with periodic minimum-image distances, in units of the exclusion diameter
+    ``D = d + gap``:
+
+    1. Random sequential adsorption [2]_ of discs of a reduced diameter (exclusion fraction
+       0.40, well below the jamming coverage 0.547), so the start is random and loose.
+    2. Growth to full size by minimising the overlap energy ``sum max(0, D' - r_ij)^2 / 2`` with
+       ``D' = 1.001 D`` (L-BFGS-B, neighbour pairs from a periodic k-d tree), as in soft-disc
+       jamming studies [4]_; where it stalls the centres are jittered and the minimisation
+       resumes. This plays the part of Lubachevsky-Stillinger growth [3]_ and reaches
+       exclusion fractions well above the adsorption jamming limit.
+    3. Shaking: ``shake_sweeps`` sweeps of hard-disc Monte Carlo moves [5]_ (each fibre proposes
+       a Gaussian step; a move is kept where it clears every other fibre's old and new place,
+       so all gaps stay >= ``min_gap``), which removes the crowd of exact contacts that step 2
+       leaves and randomises the gaps.
+
+    Cell size: with ``n_fibres`` the square cell side is chosen so the fraction is exact; with
+    ``cell_size`` the number of fibres is rounded (the achieved fraction is reported); with
+    neither, the cell side is 50 fibre radii (Trias et al. 2006 [6]_, from memory) and the
+    number of fibres is rounded up, the side then set for the exact fraction.
+
+    Parameters
+    ----------
+    vf : float
+        Fibre volume fraction, ``0 < vf <= 0.78 (d/(d+g))^2`` (0.7075 with a 5 % gap); with
+        fewer than 20 fibres ``0.72 (d/(d+g))^2`` (0.6531).
+    diameter : float or str
+        Fibre diameter, m.
+    n_fibres : int, optional
+        Number of fibres (square cell).
+    cell_size : float or str or (Lx, Ly), optional
+        Cell side(s), m. Not together with ``n_fibres``.
+    min_gap : float or str, optional
+        Smallest clear gap between fibre surfaces, m; default ``0.05 * diameter``.
+    seed : int, optional
+        Seed of ``numpy.random.default_rng``; when ``None`` one is drawn and recorded.
+    max_iterations : int
+        Budget of minimiser iterations for step 2.
+    shake_sweeps : int
+        Monte Carlo sweeps of step 3 (0 to skip).
+    progress : callable, optional
+        Called as ``progress(stage, done, total)`` with stage ``"adsorption"``,
+        ``"relaxation"`` or ``"shaking"``.
+
+    Returns
+    -------
+    FibreArrangement
+        ``method = "random"``. Every periodic centre distance is at least ``d + min_gap``.
+
+    Raises
+    ------
+    FractionError
+        If ``vf <= 0``, above the practical limit, or not reached within ``max_iterations``.
+    InputError
+        If the diameter is not positive, the gap negative, counts not whole numbers >= 1, both
+        ``n_fibres`` and ``cell_size`` are given, or the cell is smaller than 2.5 (d + gap).
+
+    References
+    ----------
+    See the module references [2]_ to [6]_.
+
+    Examples
+    --------
+    >>> a = random_cell(0.6, 7e-6, n_fibres=30, seed=1)
+    >>> a.n_fibres, round(a.volume_fraction, 12), a.stats.gap_min >= 0.05
+    (30, 0.6, True)
+    """
+    d = _length(diameter, "diameter", allow_zero=False)
+    g = 0.05 * d if min_gap is None else _length(min_gap, "min_gap", allow_zero=True)
+    v = _fraction(vf, "random", d, g)
+    iters = _count(max_iterations, "max_iterations")
+    sweeps = 0 if shake_sweeps == 0 else _count(shake_sweeps, "shake_sweeps")
+    if seed is None:
+        seed = int(np.random.SeedSequence().generate_state(1)[0])
+    if isinstance(seed, bool) or not isinstance(seed, int | np.integer) or seed < 0:
+        raise InputError(f"seed = {seed!r} must be a whole number >= 0")
+    seed = int(seed)
+    n, lx, ly = _random_size(v, d, g, n_fibres, cell_size)
+    achieved = n * math.pi * d * d / (4.0 * lx * ly)
+    _check_limit(achieved, "random", d, g, n)
+    big_d = d + g
+    if min(lx, ly) < _MIN_SIDE * big_d:
+        raise InputError(
+            f"cell_size: side {min(lx, ly):.4g} m is below 2.5 (d + gap) = {_MIN_SIDE * big_d:.4g}"
+            " m, needed so each pair of fibres meets once across the periodic faces; use more "
+            "fibres or a larger cell"
+        )
+    rng = np.random.default_rng(seed)
+    box = np.array([lx, ly]) / big_d
+    p = _adsorb(n, box, min(1.0, math.sqrt(0.40 * box[0] * box[1] / (n * math.pi / 4.0))), rng,
+                progress)
+    p, used = _relax(p, box, rng, iters, progress)
+    if not _feasible(p, box):
+        raise FractionError(
+            f"volume_fraction = {achieved:.4f}: random_cell did not clear all gaps of "
+            f"{g / d:.3g} d within max_iterations = {iters} (practical limit "
+            f"{float(packing_limit('random', d, g, n)):.4f}); raise max_iterations, try another "
+            "seed or lower the fraction"
+        )
+    p, acceptance = _shake(p, box, rng, sweeps, progress)
+    details = {"iterations": used, "shake_sweeps": sweeps, "shake_acceptance": acceptance}
+    return _arrangement(p * big_d, d, (lx, ly), v, g, seed, "random", details)
+
+
+def _random_size(
+    v: float, d: float, g: float, n_fibres: Any, cell_size: Any
+) -> tuple[int, float, float]:
+    area = math.pi * d * d / 4.0
+    if n_fibres is not None and cell_size is not None:
+        raise InputError("n_fibres and cell_size: give one of them, not both")
+    if cell_size is not None:
+        sides = cell_size if isinstance(cell_size, tuple | list) else (cell_size, cell_size)
+        if len(sides) != 2:
+            raise InputError(f"cell_size = {cell_size!r} must be one length or two (Lx, Ly)")
+        lx = _length(sides[0], "cell_size", allow_zero=False)
+        ly = _length(sides[1], "cell_size", allow_zero=False)
+        return max(1, round(v * lx * ly / area)), lx, ly
+    if n_fibres is None:
+        side = GUIDANCE_DELTA * 0.5 * d
+        n = max(1, math.ceil(v * side * side / area))
+    else:
+        n = _count(n_fibres, "n_fibres")
+    side = math.sqrt(n * area / v)
+    return n, side, side
+
+
+def _wrap(p: Array, box: Array) -> Array:
+    q = np.mod(p, box)
+    return np.where(q >= box, 0.0, q)
+
+
+def _min_image(v: Array, box: Array) -> Array:
+    return v - box * np.round(v / box)
+
+
+def _adsorb(n: int, box: Array, diam: float, rng: np.random.Generator,
+            progress: Progress | None) -> Array:
+    """Random sequential adsorption of ``n`` discs of diameter ``diam`` (batches of 64)."""
+    p = np.empty((n, 2))
+    for k in range(n):
+        best, best_r = None, -1.0
+        for _ in range(200):
+            cand = rng.random((64, 2)) * box
+            if k == 0:
+                best = cand[0]
+                break
+            v = _min_image(cand[:, None, :] - p[None, :k, :], box)
+            r = np.sqrt(np.min(np.einsum("abk,abk->ab", v, v), axis=1))
+            i = int(np.argmax(r >= diam)) if np.any(r >= diam) else int(np.argmax(r))
+            if r[i] > best_r:
+                best, best_r = cand[i], float(r[i])
+            if best_r >= diam:
+                break
+        p[k] = best
+        if progress is not None:
+            progress("adsorption", k + 1, n)
+    return p
+
+
+def _overlap_energy(flat: Array, box: Array, target: float) -> tuple[float, Array]:
+    from scipy.spatial import cKDTree
+
+    p = _wrap(flat.reshape(-1, 2), box)
+    pairs = cKDTree(p, boxsize=box).query_pairs(target, output_type="ndarray")
+    if pairs.size == 0:
+        return 0.0, np.zeros_like(flat)
+    i, j = pairs[:, 0], pairs[:, 1]
+    v = _min_image(p[i] - p[j], box)
+    r = np.hypot(v[:, 0], v[:, 1])
+    over = np.maximum(target - r, 0.0)
+    w = over / np.maximum(r, 1e-300)
+    n = p.shape[0]
+    grad = np.empty_like(p)
+    for k in range(2):
+        f = w * v[:, k]
+        grad[:, k] = np.bincount(j, f, minlength=n) - np.bincount(i, f, minlength=n)
+    return float(0.5 * np.dot(over, over)), grad.ravel()
+
+
+def _feasible(p: Array, box: Array) -> bool:
+    from scipy.spatial import cKDTree
+
+    pairs = cKDTree(p, boxsize=box).query_pairs(_FEASIBLE, output_type="ndarray")
+    if pairs.size == 0:
+        return True
+    v = _min_image(p[pairs[:, 0]] - p[pairs[:, 1]], box)
+    return bool(np.all(np.hypot(v[:, 0], v[:, 1]) >= _FEASIBLE))
+
+
+def _relax(p: Array, box: Array, rng: np.random.Generator, budget: int,
+           progress: Progress | None) -> tuple[Array, int]:
+    """Minimise the overlap energy; jitter and resume where it stalls, within the budget."""
+    from scipy.optimize import minimize
+
+    used = 0
+    while True:
+        res = minimize(
+            _overlap_energy, p.ravel(), args=(box, _TARGET), jac=True, method="L-BFGS-B",
+            options={"maxiter": budget - used, "maxfun": 4 * (budget - used) + 10, "ftol": 0.0,
+                     "gtol": 1e-12, "maxcor": 20},
+        )
+        used += max(int(res.nit), 1)
+        p = _wrap(res.x.reshape(-1, 2), box)
+        if progress is not None:
+            progress("relaxation", min(used, budget), budget)
+        if used >= budget or _feasible(p, box):
+            return p, used
+        p = _wrap(p + rng.normal(scale=0.02, size=p.shape), box)
+
+
+def _shake(p: Array, box: Array, rng: np.random.Generator, sweeps: int,
+           progress: Progress | None) -> tuple[Array, float]:
+    """Hard-disc Monte Carlo sweeps that keep every centre distance >= the exclusion diameter."""
+    from scipy.spatial import cKDTree
+
+    n = p.shape[0]
+    step, accepted = 0.05, 0.0
+    for s in range(sweeps):
+        new = _wrap(p + rng.normal(scale=step, size=p.shape), box)
+        both = np.vstack([p, new])
+        pairs = cKDTree(both, boxsize=box).query_pairs(_FEASIBLE, output_type="ndarray")
+        a, b = pairs[:, 0], pairs[:, 1]
+        va = _min_image(both[a] - both[b], box)
+        close = np.hypot(va[:, 0], va[:, 1]) < _FEASIBLE
+        a, b = a[close], b[close]
+        distinct = (a % n) != (b % n)
+        a, b = a[distinct], b[distinct]
+        blocked = np.zeros(n, dtype=bool)
+        blocked[a[a >= n] - n] = True
+        blocked[b[b >= n] - n] = True
+        ok = ~blocked
+        p = np.where(ok[:, None], new, p)
+        rate = float(ok.mean())
+        accepted += rate
+        step = float(np.clip(step * (1.1 if rate > 0.4 else 0.9), 1e-6, 0.5))
+        if progress is not None:
+            progress("shaking", s + 1, sweeps)
+    return p, accepted / sweeps if sweeps else 0.0
+
+
+# --- statistics and guidance ----------------------------------------------------------------
+
+
+def nearest_neighbour_stats(
+    centres: ArrayLike, cell_size: tuple[float, float], diameter: float
+) -> NeighbourStats:
+    """Nearest-neighbour centre distances and gaps of a periodic arrangement.
+
+    The nearest neighbour of a fibre is the closest other fibre or periodic image, its own
+    images included (minimum-image convention in a rectangular cell).
+
+    Parameters
+    ----------
+    centres : array_like, shape (N, 2)
+        Fibre centres, m, inside ``[0, Lx) x [0, Ly)``.
+    cell_size : (float, float)
+        ``(Lx, Ly)``, m.
+    diameter : float
+        Fibre diameter, m.
+
+    Returns
+    -------
+    NeighbourStats
+        Mean, min, max and standard deviation of the distances, and of the gaps (distance less
+        one diameter), in diameters.
+    """
+    from scipy.spatial import cKDTree
+
+    c = np.asarray(centres, dtype=np.float64)
+    if c.ndim != 2 or c.shape[1] != 2 or c.shape[0] < 1:
+        raise InputError(f"centres: shape {c.shape} must be (N, 2) with N >= 1")
+    box = np.asarray(cell_size, dtype=np.float64)
+    if box.shape != (2,) or not np.all(box > 0.0):
+        raise InputError(f"cell_size = {cell_size!r} must be two positive lengths")
+    d = _length(diameter, "diameter", allow_zero=False)
+    c = _wrap(c, box)
+    own = float(box.min())
+    if c.shape[0] == 1:
+        nn = np.array([own])
+    else:
+        dist, _ = cKDTree(c, boxsize=box).query(c, k=2)
+        nn = np.minimum(dist[:, 1], own)
+    x = nn / d
+    return NeighbourStats(
+        n_fibres=int(c.shape[0]),
+        distance_mean=float(x.mean()),
+        distance_min=float(x.min()),
+        distance_max=float(x.max()),
+        distance_std=float(x.std()),
+        gap_mean=float(x.mean() - 1.0),
+        gap_min=float(x.min() - 1.0),
+        gap_std=float(x.std()),
+        distances=nn,
+    )
+
+
+def rve_size_guidance(arrangement: FibreArrangement) -> RveGuidance:
+    """Compare the cell size with the published guidance on statistical RVE size.
+
+    For a random arrangement the smaller cell side in fibre radii, ``delta = L/R``, is compared
+    with ``delta >= 50`` (Trias et al. 2006, from memory), the size they found for
+    statistically representative stress and strain fields; smaller cells can still give mean
+    properties when several realisations (seeds) are averaged (Kanit et al. 2003). A periodic
+    square or hexagonal cell is exact for its idealised array, so the guidance does not apply.
+
+    Parameters
+    ----------
+    arrangement : FibreArrangement
+        The cell to judge.
+
+    Returns
+    -------
+    RveGuidance
+        ``delta``, the verdict, the fibre count of a 50 R cell at the same fraction and a
+        message.
+
+    References
+    ----------
+    Trias D, Costa J, Turon A, Hurtado JE (2006), Acta Materialia 54:3471-3484 (from memory);
+    Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003), Int. J. Solids Struct.
+    40:3647-3679 (from memory).
+    """
+    delta = min(arrangement.cell_size) / arrangement.radius
+    n50 = math.ceil(arrangement.volume_fraction * GUIDANCE_DELTA**2 / math.pi)
+    refs = (
+        "Trias D, Costa J, Turon A, Hurtado JE (2006) Acta Materialia 54:3471-3484: "
+        "L/R >= 50 (from memory)",
+        "Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003) Int. J. Solids Struct. "
+        "40:3647-3679: RVE size depends on property, contrast and accepted error (from memory)",
+    )
+    if arrangement.method != "random":
+        verdict = "not_applicable"
+        msg = (f"L/R = {delta:.3g}: a periodic {arrangement.method} cell is exact for the "
+               "idealised array; the statistical size guidance applies to random arrangements")
+    elif delta >= GUIDANCE_DELTA:
+        verdict = "adequate"
+        msg = f"L/R = {delta:.3g} >= {GUIDANCE_DELTA:g}: meets the size guidance (Trias 2006)"
+    else:
+        verdict = "small"
+        msg = (f"L/R = {delta:.3g} < {GUIDANCE_DELTA:g} (Trias 2006): use about {n50} fibres, "
+               "or average several seeds for mean properties (Kanit 2003)")
+    return RveGuidance(delta, GUIDANCE_DELTA, verdict, n50, msg, refs)
+
+
+# --- output ---------------------------------------------------------------------------------
+
+
+def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]) -> Path:
+    """Draw the cell, its fibres and their images to an image file (matplotlib, Agg).
+
+    Parameters
+    ----------
+    arrangement : FibreArrangement
+        The cell to draw.
+    path : str or path-like
+        Output image (format from the suffix, e.g. ``.png``); replaced atomically.
+
+    Returns
+    -------
+    Path
+        The path written.
+    """
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+    from matplotlib.patches import Circle, Rectangle
+
+    um = 1e6
+    lx, ly = arrangement.cell_size
+    centres, _, image = arrangement.circles()
+    fig, ax = plt.subplots(figsize=(6.0, 6.0 * min(2.0, max(0.5, ly / lx))))
+    try:
+        for c, m in zip(centres * um, image, strict=True):
+            ax.add_patch(Circle((c[0], c[1]), arrangement.radius * um,
+                                facecolor="0.85" if m else "tab:blue",
+                                edgecolor="0.4" if m else "navy",
+                                linestyle="--" if m else "-", linewidth=0.6))
+        ax.add_patch(Rectangle((0, 0), lx * um, ly * um, fill=False, edgecolor="k", linewidth=1.2))
+        pad = arrangement.diameter * um
+        ax.set_xlim(-pad, lx * um + pad)
+        ax.set_ylim(-pad, ly * um + pad)
+        ax.set_aspect("equal")
+        ax.set_xlabel("x [um]")
+        ax.set_ylabel("y [um]")
+        ax.set_title(f"{arrangement.method} cell: {arrangement.n_fibres} fibres, "
+                     f"Vf = {arrangement.volume_fraction:.4f} (images dashed)", fontsize=9)
+        fig.text(0.5, 0.005, CAUTION, ha="center", va="bottom", fontsize=5.5, wrap=True)
+        out = Path(path)
+        suffix = out.suffix or ".png"
+        fd, tmp = tempfile.mkstemp(dir=out.parent or Path("."), prefix=f".{out.name}.",
+                                   suffix=suffix)
+        os.close(fd)
+        try:
+            fig.savefig(tmp, dpi=150)
+            os.replace(tmp, out)
+        except BaseException:
+            Path(tmp).unlink(missing_ok=True)
+            raise
+    finally:
+        plt.close(fig)
+    return out
+
+
+def _write_atomic(path: Path, text: str) -> Path:
+    """Write text to a temporary file beside ``path`` and rename it over ``path``."""
+    fd, tmp = tempfile.mkstemp(dir=path.parent or Path("."), prefix=f".{path.name}.",
+                               suffix=".tmp")
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
+            fh.write(text)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+    return path

@@ -1,0 +1,386 @@
+"""Default tolerances for grading simulated RVE properties against the closed-form estimates.
+
+A single flat tolerance either flags correct RVE models or lets wrong ones through: a correct
+full-field E2 of a random arrangement at Vf = 0.65 lies 14-18 % above Mori-Tanaka while E1 lies
+within 0.1 %. The default acceptance band of each property is therefore set per property and per
+fibre fraction from our own measurement of how far Mori-Tanaka is from periodic full-field
+results (``ACCURACY.md`` of this project: aligned continuous isotropic fibres, perfect bonding,
+hexagonal arrays and random arrangements of 36 fibres, Vf = 0.30 / 0.45 / 0.55 / 0.65; glass-like
+and stiff-fibre contrasts), widened by a margin for mesh, cell-size and curve-fit scatter.
+
+The band of a property ``p`` around the Mori-Tanaka value ``mt`` is
+
+    low  = mt * min(1, 1 / (1 + e_hi)) * (1 - margin)
+    high = mt * max(1, 1 / (1 + e_lo)) * (1 + margin)
+
+where ``e = (mt - full_field) / full_field`` is the measured relative error (its range over the
+contrasts and seeds is ``[e_lo, e_hi]``), linearly interpolated in the fraction (zero at
+Vf = 0, where every estimate is exact; extrapolated with the last slope above 0.65). The band
+always contains Mori-Tanaka itself, so a lower fibre/matrix contrast than the measured ones (where
+the errors are smaller) is not flagged. For E2 the band also reaches up to Halpin-Tsai (xi = 2):
+the measured full-field E2 always lay between Mori-Tanaka and Halpin-Tsai (xi = 2).
+
+Square arrays were not measured and are not transversely isotropic (their transverse moduli depend
+on the direction within the cross-section); their band is the hull of the hexagonal and random
+bands with a further allowance on the transverse properties. Particles and short fibres were not
+measured either: a flat band (common practice, no source) applies.
+
+These numbers choose tolerances; they are not an outside reference.
+"""
+
+from __future__ import annotations
+
+import difflib
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from micromech.errors import InputError
+
+__all__ = [
+    "BOUND_SLACK",
+    "HS_SLACK",
+    "MARGINS",
+    "MT_ERROR",
+    "PROPERTY_NAMES",
+    "Band",
+    "band_about",
+    "fibre_band",
+    "particle_band",
+    "parse_tolerances",
+    "ud_base_name",
+]
+
+Array = NDArray[np.float64]
+
+#: Relative allowance on the rigorous (Voigt/Reuss) bounds for round-off and curve-fit scatter
+#: of the simulated modulus (common practice, no source).
+BOUND_SLACK = 0.005
+
+#: Relative allowance on the Hashin-Shtrikman band (common practice, no source): a
+#: displacement-based finite-element model errs on the stiff side, so a value clearly below the
+#: lower bound of a transversely isotropic arrangement points to a modelling problem.
+HS_SLACK = 0.01
+
+#: Margin added on both sides of the measured band: mesh, finite cell and curve-fit scatter
+#: (common practice, no source). Tight for the fibre-dominated E1 and nu12.
+MARGINS: dict[str, float] = {
+    "E1": 0.03,
+    "nu12": 0.03,
+    "G12": 0.05,
+    "E2": 0.05,
+    "G23": 0.05,
+    "nu23": 0.05,
+    "nu21": 0.05,
+}
+
+#: Extra allowance on the transverse properties of square arrays (not measured; not transversely
+#: isotropic) and flat bands for particles / short fibres (common practice, no source).
+SQUARE_EXTRA = 0.15
+PARTICLE_TOLERANCE = {"sphere": 0.10, "spheroid": 0.15}
+
+_FRACTIONS = np.array([0.0, 0.30, 0.45, 0.55, 0.65])
+
+#: Measured relative error of Mori-Tanaka against full field, % (low, high) at Vf = 0.30, 0.45,
+#: 0.55, 0.65 (ACCURACY.md of this project; our own measurement).
+MT_ERROR: dict[str, dict[str, tuple[tuple[float, float], ...]]] = {
+    "hexagonal": {
+        "E1": ((0.0, 0.0), (0.0, 0.0), (0.0, 0.0), (0.0, 0.0)),
+        "nu12": ((0.0, 0.0), (0.0, 0.0), (0.0, 0.0), (0.1, 0.1)),
+        "G12": ((0.0, 0.0), (-0.1, -0.1), (-0.4, -0.4), (-1.2, -1.2)),
+        "E2": ((-0.5, -0.5), (-3.0, -3.0), (-6.0, -5.0), (-11.0, -9.0)),
+        "G23": ((-0.7, -0.7), (-4.0, -4.0), (-8.0, -7.0), (-14.0, -12.0)),
+        "nu23": ((0.5, 0.5), (3.0, 3.0), (7.0, 8.0), (13.0, 15.0)),
+    },
+    "random": {
+        "E1": ((0.0, 0.0), (0.0, 0.0), (0.0, 0.0), (0.0, 0.0)),
+        "nu12": ((0.3, 0.3), (0.7, 0.7), (0.9, 0.9), (1.0, 1.0)),
+        "G12": ((-3.0, -3.0), (-7.0, -6.0), (-10.0, -8.0), (-12.0, -9.0)),
+        "E2": ((-4.0, -3.0), (-9.0, -7.0), (-14.0, -11.0), (-18.0, -14.0)),
+        "G23": ((-5.0, -4.0), (-11.0, -9.0), (-17.0, -14.0), (-22.0, -18.0)),
+        "nu23": ((3.0, 3.0), (6.0, 7.0), (11.0, 13.0), (16.0, 19.0)),
+    },
+}
+
+#: Names a property may have in a check: material axes (unidirectional, particulate: x = 1 =
+#: fibre, y = 2, z = 3) and stack axes (cross-ply and other stacks), plus strengths per direction.
+_ELASTIC_UD = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23", "nu21", "nu31",
+               "nu32")
+_ELASTIC_STACK = ("Ex", "Ey", "Ez", "Gxy", "Gxz", "Gyz", "nuxy", "nuxz", "nuyz", "nuyx", "nuzx",
+                  "nuzy")
+_DIRECTIONS = ("x", "y", "z", "xy", "yz", "xz")
+PROPERTY_NAMES: tuple[str, ...] = (
+    *_ELASTIC_UD,
+    *_ELASTIC_STACK,
+    *(f"yield_strength_{d}" for d in _DIRECTIONS),
+    *(f"ultimate_strength_{d}" for d in _DIRECTIONS),
+)
+
+#: Unidirectional constants that share a band with a measured one (transverse isotropy).
+_UD_BASE = {"E3": "E2", "G13": "G12", "nu13": "nu12", "nu32": "nu23", "nu31": "nu21"}
+
+
+@dataclass(frozen=True)
+class Band:
+    """An acceptance band for a simulated value.
+
+    Attributes
+    ----------
+    low, high : ndarray, shape (...)
+        Ends of the band, in the property's SI unit.
+    basis : str
+        One sentence saying where the band comes from.
+    """
+
+    low: Array
+    high: Array
+    basis: str
+
+
+def ud_base_name(name: str) -> str:
+    """Return the measured property whose band a unidirectional constant shares.
+
+    Parameters
+    ----------
+    name : str
+        Constant name (``"E3"`` shares the band of ``"E2"``, ``"G13"`` that of ``"G12"`` ...).
+
+    Returns
+    -------
+    str
+        The name with a measured band.
+    """
+    return _UD_BASE.get(name, name)
+
+
+def _interp_extrap(x: Array, xp: Array, fp: Array) -> Array:
+    """Linear interpolation with linear extrapolation of the last segment above ``xp[-1]``."""
+    y = np.interp(x, xp, fp)
+    slope = (fp[-1] - fp[-2]) / (xp[-1] - xp[-2])
+    return np.where(x > xp[-1], fp[-1] + slope * (x - xp[-1]), y)
+
+
+def _error_range(name: str, vf: Array, arrangement: str) -> tuple[Array, Array]:
+    table = MT_ERROR[arrangement][name]
+    lo = np.concatenate([[0.0], [t[0] for t in table]]) / 100.0
+    hi = np.concatenate([[0.0], [t[1] for t in table]]) / 100.0
+    return _interp_extrap(vf, _FRACTIONS, lo), _interp_extrap(vf, _FRACTIONS, hi)
+
+
+def fibre_band(
+    name: str,
+    mori_tanaka: ArrayLike,
+    vf: ArrayLike,
+    arrangement: str = "random",
+    *,
+    halpin_tsai: ArrayLike | None = None,
+) -> Band:
+    """Default acceptance band of a constant of aligned continuous fibres around Mori-Tanaka.
+
+    Parameters
+    ----------
+    name : str
+        Constant in material axes: ``E1, E2, E3, G12, G13, G23, nu12, nu13, nu23, nu21, nu31,
+        nu32`` (the transverse ones share the band of their transversely isotropic twin).
+    mori_tanaka : array_like, shape (...)
+        The Mori-Tanaka value, SI.
+    vf : array_like, shape (...)
+        Fibre volume fraction.
+    arrangement : {"random", "hexagonal", "square"}
+        Fibre arrangement of the RVE.
+    halpin_tsai : array_like, shape (...), optional
+        Halpin-Tsai (xi = 2) value; widens the upper end of the E2/E3 band up to it.
+
+    Returns
+    -------
+    Band
+        ``low``, ``high`` and a sentence naming the basis.
+
+    Raises
+    ------
+    InputError
+        For an unknown constant name or arrangement.
+
+    References
+    ----------
+    Mori, T., Tanaka, K. (1973), Acta Metallurgica 21, 571-574 (the centre estimate);
+    Halpin, J. C., Kardos, J. L. (1976), Polymer Engineering and Science 16(5), 344-352 (xi = 2
+    for E2 of circular fibres); the error table is this project's own measurement (ACCURACY.md).
+    """
+    base = ud_base_name(name)
+    if base not in MARGINS:
+        raise InputError(
+            f"property {name!r} has no default band for aligned fibres; expected one of "
+            f"{sorted(set(MARGINS) | set(_UD_BASE))}"
+        )
+    if arrangement not in ("random", "hexagonal", "square"):
+        raise InputError(
+            f"arrangement = {arrangement!r} has no measured band; expected random, hexagonal or "
+            "square"
+        )
+    mt = np.asarray(mori_tanaka, dtype=np.float64)
+    v = np.asarray(vf, dtype=np.float64)
+    margin = MARGINS[base]
+    if base == "nu21":  # nu21 = nu12 E2 / E1: the bands of nu12 and E2 compound
+        lo_n, hi_n = _factors("nu12", v, arrangement)
+        lo_e, hi_e = _factors("E2", v, arrangement)
+        lo_f, hi_f = lo_n * lo_e, hi_n * hi_e
+    else:
+        lo_f, hi_f = _factors(base, v, arrangement)
+    low = mt * lo_f * (1.0 - margin)
+    high = mt * hi_f * (1.0 + margin)
+    basis = (
+        f"measured spread of Mori-Tanaka against full-field results for a {arrangement} "
+        f"arrangement at this fraction, widened by {100 * margin:.0f} %"
+    )
+    if arrangement == "square" and base in ("E2", "G23", "nu23", "nu21"):
+        low = low * (1.0 - SQUARE_EXTRA)
+        high = high * (1.0 + SQUARE_EXTRA)
+        basis = (
+            "square arrays were not measured and are not transversely isotropic: hull of the "
+            f"hexagonal and random bands widened by {100 * (margin + SQUARE_EXTRA):.0f} %"
+        )
+    if base == "E2" and halpin_tsai is not None:
+        high = np.maximum(high, np.asarray(halpin_tsai, dtype=np.float64) * (1.0 + margin))
+        basis += "; full-field E2 lies between Mori-Tanaka and Halpin-Tsai (xi = 2)"
+    return Band(low=np.minimum(low, high), high=np.maximum(low, high), basis=basis)
+
+
+def _factors(base: str, v: Array, arrangement: str) -> tuple[Array, Array]:
+    arrs = ("hexagonal", "random") if arrangement == "square" else (arrangement,)
+    lo_f = np.full(v.shape, np.inf)
+    hi_f = np.full(v.shape, -np.inf)
+    for arr in arrs:
+        e_lo, e_hi = _error_range(base, v, arr)
+        # full field = MT / (1 + e): the band of true values, always containing MT itself
+        lo_f = np.minimum(lo_f, np.minimum(1.0, 1.0 / (1.0 + e_hi)))
+        hi_f = np.maximum(hi_f, np.maximum(1.0, 1.0 / (1.0 + e_lo)))
+    return lo_f, hi_f
+
+
+def particle_band(best: ArrayLike, inclusion: str = "sphere") -> Band:
+    """Default band for particles and short fibres: a flat relative tolerance (not measured).
+
+    Parameters
+    ----------
+    best : array_like, shape (...)
+        The best estimate (Mori-Tanaka), SI.
+    inclusion : {"sphere", "spheroid"}
+        Inclusion shape.
+
+    Returns
+    -------
+    Band
+        ``best * (1 -+ t)`` with t = 0.10 for spheres, 0.15 for spheroids.
+
+    Raises
+    ------
+    InputError
+        For another inclusion shape.
+    """
+    if inclusion not in PARTICLE_TOLERANCE:
+        raise InputError(
+            f"inclusion = {inclusion!r} has no flat band; expected one of "
+            f"{sorted(PARTICLE_TOLERANCE)}"
+        )
+    t = PARTICLE_TOLERANCE[inclusion]
+    b = np.asarray(best, dtype=np.float64)
+    return Band(
+        low=np.minimum(b * (1 - t), b * (1 + t)),
+        high=np.maximum(b * (1 - t), b * (1 + t)),
+        basis=(
+            f"{inclusion} inclusions were not measured against full-field results: a flat "
+            f"{100 * t:.0f} % band around Mori-Tanaka (common practice, no source)"
+        ),
+    )
+
+
+def band_about(best: ArrayLike, tolerance: float | tuple[float, float]) -> Band:
+    """Band ``best * (1 - below) .. best * (1 + above)`` from a user tolerance.
+
+    Parameters
+    ----------
+    best : array_like, shape (...)
+        The best estimate, SI.
+    tolerance : float or (float, float)
+        Relative tolerance, symmetric or as (below, above).
+
+    Returns
+    -------
+    Band
+        The band with a basis naming the tolerance.
+
+    Raises
+    ------
+    InputError
+        If a tolerance is negative, not finite, or ``below`` is 1 or more.
+    """
+    below, above = (tolerance, tolerance) if np.isscalar(tolerance) else tolerance  # type: ignore[misc]
+    below, above = float(below), float(above)  # type: ignore[arg-type]
+    for label, t in (("below", below), ("above", above)):
+        if not np.isfinite(t) or t < 0.0:
+            raise InputError(f"tolerance {label} = {t!r} must be a finite number >= 0")
+    if below >= 1.0:
+        raise InputError(f"tolerance below = {below!r} must be less than 1 (100 %)")
+    b = np.asarray(best, dtype=np.float64)
+    lo, hi = b * (1.0 - below), b * (1.0 + above)
+    text = (
+        f"{100 * below:.3g} %" if below == above
+        else f"-{100 * below:.3g} % / +{100 * above:.3g} %"
+    )
+    return Band(low=np.minimum(lo, hi), high=np.maximum(lo, hi),
+                basis=f"tolerance {text} around the best estimate (given by the user)")
+
+
+def parse_tolerances(items: Iterable[str] | Mapping[str, float]) -> dict[str, float]:
+    """Read tolerance overrides such as ``"E2=0.2"`` (relative, symmetric).
+
+    Parameters
+    ----------
+    items : iterable of str, or mapping of str to float
+        ``NAME=VALUE`` strings (a trailing ``%`` divides by 100), or a mapping.
+
+    Returns
+    -------
+    dict of str to float
+        Property name -> relative tolerance.
+
+    Raises
+    ------
+    InputError
+        For a malformed item, an unknown property name (the nearest valid one is suggested) or
+        a value that is not a number in [0, 1).
+    """
+    pairs: list[tuple[str, object]]
+    if isinstance(items, Mapping):
+        pairs = list(items.items())
+    else:
+        pairs = []
+        for item in items:
+            if "=" not in item:
+                raise InputError(
+                    f"tolerance {item!r} must read NAME=VALUE, e.g. E2=0.2 (relative) or E2=20%"
+                )
+            name, _, text = item.partition("=")
+            pairs.append((name.strip(), text.strip()))
+    out: dict[str, float] = {}
+    for key, val in pairs:
+        if key not in PROPERTY_NAMES:
+            near = difflib.get_close_matches(key, PROPERTY_NAMES, n=1)
+            hint = f"; did you mean {near[0]!r}?" if near else ""
+            raise InputError(f"tolerance for unknown property {key!r}{hint}")
+        try:
+            if isinstance(val, str) and val.endswith("%"):
+                t = float(val[:-1]) / 100.0
+            else:
+                t = float(val)  # type: ignore[arg-type]
+        except (TypeError, ValueError):
+            raise InputError(
+                f"tolerance {key} = {val!r} is not a number (give e.g. 0.2 or 20%)"
+            ) from None
+        if not (np.isfinite(t) and 0.0 <= t < 1.0):
+            raise InputError(f"tolerance {key} = {val!r} must lie in [0, 1) (a relative tolerance)")
+        out[key] = t
+    return out

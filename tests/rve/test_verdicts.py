@@ -1,0 +1,162 @@
+"""Verdict logic with hand-made numbers: bounds, HS band and estimates are given, not computed."""
+
+import math
+
+import pytest
+
+from micromech.errors import InputError
+from micromech.rve.causes import Diagnosis
+from micromech.rve.tolerances import fibre_band
+from micromech.rve.verdicts import CAUTION, PropertyCheck, grade_property, worst_verdict
+
+# invented numbers of a glass/epoxy-like ply at Vf = 0.55 (not from any source)
+E2_EST = {"mori_tanaka": 11e9, "halpin_tsai": 14e9, "hashin_shtrikman_lower": 11e9}
+E2_BOUNDS = {"lower_bound": 6.5e9, "upper_bound": 41e9}
+E2_BAND = fibre_band("E2", 11e9, 0.55, "random", halpin_tsai=14e9)
+CTX_Y = Diagnosis(direction="y", size=(100e-6, 100e-6, 100e-6), fraction=0.55,
+                  fraction_curve=([0.0, 0.3, 0.55, 0.7], [3.5e9, 6.0e9, 11e9, 17e9]))
+
+
+def grade_e2(value, **kw):
+    args = dict(estimates=E2_EST, band=E2_BAND, context=CTX_Y, **E2_BOUNDS)
+    args.update(kw)
+    return grade_property("E2", value, **args)
+
+
+def test_value_times_1000_violates_bounds_with_unit_slip_first():
+    r = grade_e2(11.5e9 * 1000)
+    assert r.verdict == "violates_bounds"
+    assert "above the rigorous upper bound" in r.reasons[0]
+    assert r.reasons[1].startswith("Likely cause 1: A unit slip")
+    assert "10^3" in r.reasons[1]
+
+
+def test_value_divided_by_1000_violates_bounds_with_unit_slip():
+    r = grade_e2(11.5e9 / 1000)
+    assert r.verdict == "violates_bounds"
+    assert "below the rigorous lower bound" in r.reasons[0]
+    assert "A unit slip" in r.reasons[1] and "10^-3" in r.reasons[1]
+
+
+def test_value_40_percent_below_estimates_inside_bounds_is_suspect():
+    r = grade_e2(0.6 * 11e9 + 0.1e9)  # 6.7 GPa: above Reuss 6.5 GPa, 39 % below MT
+    assert r.verdict == "suspect"
+    assert "below the expected band" in r.reasons[0]
+    assert not any("unit slip" in x for x in r.reasons)
+
+
+def test_value_within_band_is_consistent_and_says_why():
+    r = grade_e2(12.2e9)  # +11 % above MT: inside the MT .. HT(xi=2) band
+    assert r.verdict == "consistent"
+    assert r.reasons[0].startswith("E2 = 12.2 GPa lies within the expected band")
+    assert r.best_model == "mori_tanaka" and r.best_estimate == 11e9
+
+
+def test_value_slightly_below_mt_but_above_band_low_is_consistent():
+    assert grade_e2(10.6e9, hs_band=None).verdict == "consistent"
+
+
+def test_below_hashin_shtrikman_lower_is_suspect():
+    # inside a wide user band, but 5 % below the HS lower value (1 % slack)
+    r = grade_e2(10.45e9, tolerance=0.3, hs_band=(11e9, 30e9))
+    assert r.verdict == "suspect"
+    assert "below the lower Hashin-Shtrikman value" in r.reasons[0]
+
+
+def test_within_hs_slack_is_not_suspect():
+    r = grade_e2(10.95e9, tolerance=0.3, hs_band=(11e9, 30e9))
+    assert r.verdict == "consistent"
+
+
+def test_user_tolerance_replaces_default_band():
+    assert grade_e2(12.6e9, tolerance=0.2).verdict == "consistent"   # +14.5 % within 20 %
+    assert grade_e2(12.6e9, tolerance=0.1).verdict == "suspect"      # outside 10 %
+    r = grade_e2(12.6e9, tolerance=0.1)
+    assert "given by the user" in r.reasons[0]
+
+
+def test_just_above_upper_bound_within_slack_is_consistent_with_note():
+    r = grade_property("E1", 40.1e9, lower_bound=8e9, upper_bound=40e9,
+                       estimates={"mori_tanaka": 39.9e9}, band=fibre_band("E1", 39.9e9, 0.55))
+    assert r.verdict == "consistent"
+    assert any("within the 0.5 % allowed" in x for x in r.reasons)
+
+
+def test_beyond_slack_above_upper_bound_violates():
+    r = grade_property("E1", 40.4e9, lower_bound=8e9, upper_bound=40e9,
+                       estimates={"mori_tanaka": 39.9e9})
+    assert r.verdict == "violates_bounds"
+
+
+def test_strength_outside_limit_analysis_bounds_is_suspect_not_violation():
+    r = grade_property("yield_strength_y", 40e6, lower_bound=60e6, upper_bound=1.9e9,
+                       estimates={}, best=None, bounds_rigorous=False)
+    assert r.verdict == "suspect"
+    assert "matrix yield" in r.reasons[0]
+
+
+def test_no_estimate_inside_bounds_is_consistent():
+    r = grade_property("Gxy", 4e9, lower_bound=2e9, upper_bound=20e9, estimates={}, best=None)
+    assert r.verdict == "consistent" and "no estimate" in r.reasons[0]
+
+
+def test_nothing_to_compare_is_consistent_with_reason():
+    r = grade_property("nu12", 0.3, estimates={}, best=None)
+    assert r.verdict == "consistent" and "no bound or estimate" in r.reasons[0]
+
+
+def test_poisson_without_band_gets_flat_default_band():
+    r = grade_property("nu12", 0.36, estimates={"mori_tanaka": 0.28})
+    assert r.verdict == "suspect" and "flat 10 % band" in r.reasons[0]
+
+
+def test_as_dict_follows_the_contract_keys():
+    d = grade_e2(12e9).as_dict()
+    for key in ("value", "lower_bound", "upper_bound", "estimates", "verdict", "reasons"):
+        assert key in d
+    assert d["estimates"]["halpin_tsai"] == 14e9
+
+
+def test_with_reasons_raises_severity_and_keeps_worst():
+    r = grade_e2(12e9)
+    s = r.with_reasons(["Reciprocity fails: ..."], "suspect")
+    assert s.verdict == "suspect" and s.reasons == ("Reciprocity fails: ...",)
+    v = grade_e2(12e12).with_reasons(["x"], "suspect")
+    assert v.verdict == "violates_bounds" and v.reasons[-1] == "x"
+
+
+def test_worst_verdict_orders_by_severity():
+    assert worst_verdict([]) == "consistent"
+    assert worst_verdict(["suspect", "consistent"]) == "suspect"
+    assert worst_verdict(["suspect", "violates_bounds", "consistent"]) == "violates_bounds"
+
+
+def test_caution_names_allowables_codes_and_engineer():
+    assert "not design allowables" in CAUTION and "licensed engineer" in CAUTION
+
+
+def test_propertycheck_is_frozen():
+    r = grade_e2(12e9)
+    assert isinstance(r, PropertyCheck)
+    with pytest.raises(AttributeError):
+        r.verdict = "suspect"  # type: ignore[misc]
+
+
+def test_nan_value_raises():
+    with pytest.raises(InputError, match="E2: simulated value nan is not a finite number"):
+        grade_e2(math.nan)
+
+
+def test_tolerance_without_best_estimate_raises():
+    with pytest.raises(InputError, match="a tolerance needs a best estimate"):
+        grade_property("E2", 1e9, estimates={}, best=None, tolerance=0.1)
+
+
+def test_best_not_among_estimates_raises():
+    with pytest.raises(InputError, match="best estimate 'cylinders' is not among"):
+        grade_property("E2", 1e9, estimates={"mori_tanaka": 1e9}, best="cylinders")
+
+
+def test_unknown_property_kind_raises():
+    with pytest.raises(InputError, match="property name 'K23' is not a modulus"):
+        grade_property("K23", 1e9)
