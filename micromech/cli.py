@@ -160,6 +160,37 @@ def materials_command(key: str | None, as_json: bool, paths: tuple[str, ...]) ->
 # --- estimate (homogenize) ------------------------------------------------------------------
 
 
+@cli.command("estimate")
+@click.argument("case_file", type=click.Path(dir_okay=False))
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option("--plot", "plot_file", type=click.Path(dir_okay=False),
+              help="Draw each property against fibre fraction to a PNG file.")
+@click.option("--misalignment", type=float, default=2.0, show_default=True,
+              help="Fibre misalignment for the kink-band compression estimate, degrees.")
+def estimate_command(case_file: str, as_json: bool, plot_file: str | None,
+                     misalignment: float) -> None:
+    """Mean-field estimates and rigorous bounds for the [composite] of CASE_FILE."""
+    from micromech.case import load_case
+    from micromech.errors import CaseFileError
+    from micromech.homogenize import estimate
+    from micromech.report.estimate import estimate_table, plot_estimates
+
+    case = load_case(case_file)
+    if case.composite is None:
+        raise CaseFileError(
+            f"{case_file}: estimate needs [fibre], [matrix] and [composite] with a fibre fraction"
+        )
+    est = estimate(case.composite, case=case.name, misalignment_deg=misalignment)
+    if plot_file is not None:
+        plot_estimates(est, plot_file)
+    if as_json:
+        emit_json(est.as_dict())
+        return
+    click.echo(estimate_table(est))
+    if plot_file is not None:
+        click.echo(f"plot written to {plot_file}")
+
+
 # --- laminate -------------------------------------------------------------------------------
 
 _LAMINATE_CRITERIA = ("max_stress", "max_strain", "tsai_hill", "tsai_wu", "hashin")
@@ -369,7 +400,8 @@ def rve_command(
         ("packing", arr.method + ("" if arr.seed is None else f" (seed {arr.seed})")),
         ("fibres", f"{arr.n_fibres} (+{n_img} images cutting the faces)"),
         ("fibre diameter", f"{d * 1e6:.4g} um"),
-        ("volume fraction", f"achieved {arr.volume_fraction:.4f} (asked {arr.target_fraction:.4f})"),
+        ("volume fraction", f"achieved {arr.volume_fraction:.4f} "
+                            f"(asked {arr.target_fraction:.4f})"),
         ("cell size", f"{lx * 1e6:.4g} x {ly * 1e6:.4g} um = {lx / r:.4g} x {ly / r:.4g} "
                       "fibre radii"),
         ("required min gap", f"{arr.min_gap * 1e6:.4g} um ({arr.min_gap / d:.3g} d)"),

@@ -156,7 +156,7 @@ class ElasticConstants:
         ndarray, shape (..., 6, 6)
             The stiffness in Voigt order 11, 22, 33, 23, 13, 12, engineering shear.
         """
-        return np.linalg.inv(self.compliance())
+        return np.asarray(np.linalg.inv(self.compliance()), dtype=np.float64)
 
     def compliance(self) -> Array:
         """Return the 6x6 compliance, shape ``(..., 6, 6)``, 1/Pa.

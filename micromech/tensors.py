@@ -129,7 +129,7 @@ def orthotropic_stiffness(
     ndarray, shape (..., 6, 6)
         Stiffness in Pa.
     """
-    return np.linalg.inv(orthotropic_compliance(E1, E2, E3, G23, G13, G12, nu23, nu13, nu12))
+    return _f(np.linalg.inv(orthotropic_compliance(E1, E2, E3, G23, G13, G12, nu23, nu13, nu12)))
 
 
 def transversely_isotropic_compliance(
@@ -186,7 +186,7 @@ def transversely_isotropic_stiffness(
     >>> C.shape
     (6, 6)
     """
-    return np.linalg.inv(transversely_isotropic_compliance(E1, E2, nu12, G12, nu23))
+    return _f(np.linalg.inv(transversely_isotropic_compliance(E1, E2, nu12, G12, nu23)))
 
 
 def isotropic_compliance(E: ArrayLike, nu: ArrayLike) -> Array:
@@ -512,17 +512,16 @@ def check_stiffness(C: ArrayLike, name: str = "stiffness", rtol: float = 1e-8) -
     if C.shape[-2:] != (6, 6):
         raise InputError(f"{name}: expected shape (..., 6, 6), got {C.shape}")
     finite = np.all(np.isfinite(C), axis=(-2, -1))
-    _raise_first(~finite, name, "must be finite (no NaN or infinity)")
-    sym = is_symmetric(C, rtol)
+    _raise_first(np.logical_not(finite), name, "must be finite (no NaN or infinity)")
     err = symmetry_error(C)
-    bad = ~sym
+    bad = err > rtol
     if np.any(bad):
         idx = _first(bad)
         raise InvalidMaterialError(
             f"{name}{_at(idx)} must be symmetric: relative asymmetry {float(err[idx]):.3g} "
             f"exceeds {rtol:g}"
         )
-    _raise_first(~is_positive_definite(C), name, "must be positive definite")
+    _raise_first(np.logical_not(is_positive_definite(C)), name, "must be positive definite")
     return C
 
 

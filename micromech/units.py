@@ -9,6 +9,8 @@ The pint registry is created on first use only, so importing this module is chea
 
 from __future__ import annotations
 
+import math
+import re
 from functools import lru_cache
 from typing import TYPE_CHECKING, Any
 
@@ -17,7 +19,7 @@ from micromech.errors import UnitError
 if TYPE_CHECKING:  # pragma: no cover
     import pint
 
-__all__ = ["DIMENSIONS", "parse_quantity", "to_si", "format_si"]
+__all__ = ["DIMENSIONS", "parse_quantity", "to_si", "unit_factor", "format_si"]
 
 #: Physical kinds a field may expect, with the pint dimensionality and the SI unit.
 DIMENSIONS: dict[str, tuple[str, str]] = {
@@ -53,8 +55,21 @@ _PLAIN_WORDS = {
 def _registry() -> pint.UnitRegistry:
     import pint
 
-    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+    ureg: pint.UnitRegistry = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
     return ureg
+
+
+def _as_difference(text: str) -> str:
+    """Read degC/degF as temperature differences: CTEs and delta_T are differences, not levels."""
+    return re.sub(r"(?<![\w])(deg(?:ree)?_?[CF]|°[CF])(?![\w])",
+                  lambda m: "delta_degC" if m.group(1)[-1] == "C" else "delta_degF", text)
+
+
+def _checked(value: float, field: str, text: object) -> float:
+    if not math.isfinite(value):
+        raise UnitError(f"{field} must be a finite number, got {text!r}")
+    # pint's conversion leaves float noise (2.55 g/cm^3 -> 2549.9999999999995): round to 15 digits
+    return float(f"{value:.15g}")
 
 
 def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
@@ -91,28 +106,30 @@ def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
     if isinstance(value, bool):
         raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r}")
     if isinstance(value, int | float):
-        return float(value)
+        return _checked(float(value), field, value)
     if not isinstance(value, str):
         try:
-            return float(value)
+            return _checked(float(value), field, value)
         except (TypeError, ValueError):
             raise UnitError(
                 f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r} of type {type(value).__name__}"
             ) from None
     text = value.strip()
     try:
-        return float(text)
+        number = float(text)
     except ValueError:
-        pass
-    return _parse_string(text, kind, field)
+        return _checked(_parse_string(text, kind, field), field, text)
+    return _checked(number, field, text)
 
 
 def _parse_string(text: str, kind: str, field: str) -> float:
     import pint
 
     ureg = _registry()
+    if kind in ("expansion", "temperature_change"):
+        text = _as_difference(text)
     try:
-        q = ureg.Quantity(text.replace("µ", "u"))
+        q: Any = ureg.Quantity(text.replace("µ", "u"))
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
         raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}: {exc}") from None
     dim_expected, si_unit = DIMENSIONS[kind]

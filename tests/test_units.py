@@ -119,23 +119,18 @@ def test_format_si_uses_engineering_units(value, kind, text):
     assert format_si(value, kind) == text
 
 
-# --- defects found in units.py (reported to the lead; xfail until fixed) ----------------------
+# --- temperature differences and non-finite values ---------------------------------------------
 
 
-@pytest.mark.xfail(strict=True, reason="units.py: a CTE per degree Celsius is converted as if "
-                   "degC were an absolute temperature (5e-6 /degC gives 1.8e-8 1/K)")
 def test_expansion_per_degree_celsius_equals_per_kelvin():
     # A temperature difference of 1 degC equals 1 K (SI Brochure 9th ed., Sec. 2.3.1).
     assert parse_quantity("5e-6 1/degC", "expansion", "alpha") == pytest.approx(5e-6, rel=1e-12)
 
 
-@pytest.mark.xfail(strict=True, reason="units.py: '10 degC' as a temperature change becomes "
-                   "283.15 K (absolute conversion) instead of 10 K or an error")
 def test_temperature_change_in_celsius_is_a_difference():
     assert parse_quantity("10 degC", "temperature_change", "delta_T") == pytest.approx(10.0)
 
 
-@pytest.mark.xfail(strict=True, reason="units.py: 'nan' and 'inf' pass parse_quantity unchecked")
 def test_non_finite_values_are_rejected():
     with pytest.raises(UnitError, match="finite"):
         parse_quantity("nan", "pressure", "E")

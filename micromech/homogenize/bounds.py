@@ -93,10 +93,8 @@ def _phase_fractions(fractions: ArrayLike, n: int) -> Array:
     total = np.sum(c, axis=0)
     bad = np.abs(total - 1.0) > 1e-9
     if np.any(bad):
-        raise FractionError(
-            f"fractions sum to {float(np.asarray(total)[bad].flat[0]) if total.ndim else float(total)!r}"
-            ", must sum to 1"
-        )
+        first = float(np.asarray(total)[bad].flat[0]) if total.ndim else float(total)
+        raise FractionError(f"fractions sum to {first!r}, must sum to 1")
     return c
 
 
@@ -192,7 +190,9 @@ def voigt_reuss(
     Returns
     -------
     voigt, reuss : ElasticConstants (reuss None with voids)
-        Upper and lower bounds; CTEs: Reuss the volume average, Voigt ``C_V^-1 <C alpha>``.
+        Upper and lower bounds on the moduli (the Poisson ratios are those of the bounding
+        tensors, not bounds). No CTE: for fibres the uniform-field CTEs do not bound the
+        transverse CTE, which can exceed both phases' values.
 
     Raises
     ------
@@ -211,21 +211,11 @@ def voigt_reuss(
     c0 = 1.0 - c - cv
     Cf, Cm = cm.fibre_tensor(f), cm.matrix_tensor(m)
     CV = W.add(W.scale(Cf, c), W.scale(Cm, c0))
-    a_v = a_r = None
-    if cm.has_cte(f, m):
-        f0, f1 = cm.thermal_vector(f.alpha1, f.alpha2)  # type: ignore[arg-type]
-        m0, m1 = cm.thermal_vector(m.alpha, m.alpha)  # type: ignore[arg-type]
-        b0 = c * (Cf.c * f0 + Cf.e * f1) + c0 * (Cm.c * m0 + Cm.e * m1)
-        b1 = c * (Cf.f * f0 + Cf.d * f1) + c0 * (Cm.f * m0 + Cm.d * m1)
-        x0, x1 = cm.solve_block(CV, b0, b1)
-        a_v = (x1, x0 / W.SQ2)
-        if not np.any(cv > 0.0):
-            a_r = (c * f.alpha1 + c0 * m.alpha, c * f.alpha2 + c0 * m.alpha)  # type: ignore[operator]
-    voigt = cm.ti_result(CV, model="voigt", source=VOIGT_SOURCE, alpha=a_v)
+    voigt = cm.ti_result(CV, model="voigt", source=VOIGT_SOURCE)
     if np.any(cv > 0.0):
         return voigt, None
     SR = W.add(W.scale(W.inv(Cf), c), W.scale(W.inv(Cm), c0))
-    reuss = cm.ti_result(W.inv(SR), model="reuss", source=REUSS_SOURCE, alpha=a_r, S=SR)
+    reuss = cm.ti_result(W.inv(SR), model="reuss", source=REUSS_SOURCE, S=SR)
     return voigt, reuss
 
 
@@ -430,7 +420,8 @@ def hashin_shtrikman_fibre(
     Examples
     --------
     >>> from micromech.homogenize import FibrePhase, MatrixPhase
-    >>> lo, hi = hashin_shtrikman_fibre(FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35), 0.5)
+    >>> f, m = FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35)
+    >>> lo, hi = hashin_shtrikman_fibre(f, m, 0.5)
     >>> bool(lo.E2 < hi.E2)
     True
     """
@@ -453,7 +444,9 @@ def hashin_shtrikman_fibre(
         aL = (np.minimum(x[0], y[0]), np.minimum(x[1], y[1]))
         aU = (np.maximum(x[0], y[0]), np.maximum(x[1], y[1]))
 
-    def build(b: dict[str, Array], nu: Array, a: tuple[Array, Array] | None, key: str) -> ElasticConstants:
+    def build(
+        b: dict[str, Array], nu: Array, a: tuple[Array, Array] | None, key: str
+    ) -> ElasticConstants:
         return ElasticConstants(
             E1=b["E1"], E2=b["E2"], E3=b["E2"], G12=b["G12"], G13=b["G12"], G23=b["G23"],
             nu12=nu, nu13=nu, nu23=None,
@@ -514,7 +507,8 @@ def hashin_shtrikman_spheroid(
     Gf = f.G12
     Cf, Cm = W.isotropic(Kf, Gf), W.isotropic(m.K, m.G)
     out = []
-    for pick, key in ((np.minimum, "hashin_shtrikman_lower"), (np.maximum, "hashin_shtrikman_upper")):
+    sides = ((np.minimum, "hashin_shtrikman_lower"), (np.maximum, "hashin_shtrikman_upper"))
+    for pick, key in sides:
         K0, G0 = pick(Kf, m.K), pick(Gf, m.G)
         C0 = W.isotropic(K0, G0)
         P = polarization(K0, G0, aspect_ratio)

@@ -114,6 +114,8 @@ class Estimates(Mapping[str, ElasticConstants]):
         tuple of ndarray or None
             ``(lower, upper)``.
         """
+        lows: tuple[str, ...]
+        ups: tuple[str, ...]
         if name in _MODULI:
             lows, ups = ("reuss", "hashin_shtrikman_lower"), ("voigt", "hashin_shtrikman_upper")
         elif name in ("nu12", "nu13", "alpha1", "alpha2", "alpha3") and (
@@ -255,7 +257,8 @@ def estimate(
                 f"continuous or short fibres (aspect ratio >= 1) without voids; not applied {why}")
 
     models["mori_tanaka"] = mori_tanaka(
-        f, m, vf, inclusion, None if inclusion == "continuous" else ar, void_fraction=vv)
+        f, m, vf, inclusion,  # type: ignore[arg-type]
+        None if inclusion == "continuous" else ar, void_fraction=vv)
     ordered = {k: models[k] for k in MODEL_KEYS if k in models}
     st = {}
     if strengths:

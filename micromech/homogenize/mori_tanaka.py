@@ -228,7 +228,7 @@ def _random_result(
     S = W.inv(C)
     a_in = a_ax = None
     if alpha is not None:
-        # thermal stress beta = C : alpha of the aligned composite, averaged, then alpha = <C>^-1 <beta>
+        # thermal stress beta = C : alpha of the aligned composite, averaged; alpha = <C>^-1 <beta>
         t0, t1 = cm.thermal_vector(alpha[0], alpha[1])
         b0 = C_aligned.c * t0 + C_aligned.e * t1  # transverse part (theta / sqrt2 component)
         b1 = C_aligned.f * t0 + C_aligned.d * t1  # axial part

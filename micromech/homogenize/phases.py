@@ -125,7 +125,8 @@ class FibrePhase:
         if (self.alpha1 is None) != (self.alpha2 is None):
             given = "alpha1" if self.alpha1 is not None else "alpha2"
             raise InvalidMaterialError(
-                f"fibre {given} is given without its partner: give both alpha1 and alpha2 or neither"
+                f"fibre {given} is given without its partner: give both alpha1 and alpha2 or "
+                "neither"
             )
         for name in ("alpha1", "alpha2"):
             x = getattr(self, name)
@@ -152,6 +153,7 @@ class FibrePhase:
             and np.all(np.isclose(self.G12, G, rtol=1e-9, atol=0.0))
             and (
                 self.alpha1 is None
+                or self.alpha2 is None
                 or bool(np.all(np.isclose(self.alpha1, self.alpha2, rtol=1e-9, atol=1e-30)))
             )
         )
@@ -183,7 +185,8 @@ class FibrePhase:
         nu_ = np.asarray(nu, dtype=np.float64)
         _finite(nu_, "fibre", "nu")
         _require((nu_ > -1.0) & (nu_ < 0.5), nu_, "fibre", "nu", "must lie in (-1, 0.5)")
-        return cls(E_, E_, nu_, E_ / (2.0 * (1.0 + nu_)), nu_, alpha, alpha)
+        a = _arr(alpha)
+        return cls(E_, E_, nu_, E_ / (2.0 * (1.0 + nu_)), nu_, a, a)
 
     @classmethod
     def from_material(cls, m: Any) -> FibrePhase:

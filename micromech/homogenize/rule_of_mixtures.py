@@ -68,7 +68,9 @@ def inverse_mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
         The harmonic volume average.
     """
     c = cm.fraction(vf)
-    return np.asarray(1.0 / (c / np.asarray(value_f, float) + (1.0 - c) / np.asarray(value_m, float)))
+    xf = np.asarray(value_f, dtype=np.float64)
+    xm = np.asarray(value_m, dtype=np.float64)
+    return np.asarray(1.0 / (c / xf + (1.0 - c) / xm))
 
 
 def rule_of_mixtures(fibre: Any, matrix: Any, vf: ArrayLike) -> ElasticConstants:

@@ -107,7 +107,7 @@ class StrengthEstimate:
             ``value``, ``kind``, ``source``, ``note``.
         """
         v = np.asarray(self.value, dtype=np.float64)
-        val: Any = np.where(np.isfinite(v), v.astype(object), None).tolist()
+        val: Any = np.where(np.isfinite(v), v.astype(object), np.array(None)).tolist()
         return {"value": val, "kind": self.kind, "source": self.source, "note": self.note}
 
 
@@ -158,7 +158,7 @@ def longitudinal_tension(
     Xf: ArrayLike, E1f: ArrayLike, Em: ArrayLike, vf: ArrayLike,
     *, matrix_strength: ArrayLike | None = None, matrix_yield: ArrayLike | None = None,
 ) -> Array:
-    """Fibre-controlled longitudinal tensile strength (rule of mixtures at the fibre failure strain).
+    """Fibre-controlled longitudinal tensile strength (mixture at the fibre failure strain).
 
     Parameters
     ----------
@@ -468,7 +468,12 @@ def strength_estimates(
     except Exception:  # noqa: BLE001 - non-isotropic matrix: the fibre estimates do not apply
         return out
     el = elastic if elastic is not None else mori_tanaka(f, m, vf)
+    if el.E2 is None or el.G12 is None:
+        raise InputError(f"strength_estimates: the elastic estimate {el.model!r} lacks E2 or G12")
+    E2, G12 = el.E2, el.G12
     arrangement = getattr(composite, "arrangement", "square")
+    array_note = (f"{arrangement} array" if arrangement != "random"
+                  else "random taken as square array")
 
     Xf = _strength(fib, "Xt")
     if Xf is not None:
@@ -489,15 +494,15 @@ def strength_estimates(
     if tau is not None:
         out["longitudinal_compression_kink_band"] = StrengthEstimate(
             "longitudinal_compression_kink_band",
-            kink_band(tau, el.G12, np.radians(misalignment_deg)),
+            kink_band(tau, G12, np.radians(misalignment_deg)),
             "estimate", "Budiansky (1983); Argon (1972)",
             f"tau_y = {how}; misalignment {misalignment_deg:g} deg; G12 from {el.model}",
         )
         out["in_plane_shear"] = StrengthEstimate(
             "in_plane_shear",
-            in_plane_shear_strength(el.G12, m.G, f.G12, tau, vf, arrangement),
+            in_plane_shear_strength(G12, m.G, f.G12, tau, vf, arrangement),
             "estimate", "Kaw (2006) Sec. 3.3, shear strain magnification",
-            f"matrix shear strength = {how}; G12 from {el.model}",
+            f"matrix shear strength = {how}; {array_note}; G12 from {el.model}",
         )
     for key, name, label in (("transverse_tension", "Xt", "tensile"),
                              ("transverse_compression", "Xc", "compressive")):
@@ -507,8 +512,8 @@ def strength_estimates(
             sm, how2 = ym, "matrix yield_strength"
         if sm is not None:
             out[key] = StrengthEstimate(
-                key, transverse_strength(el.E2, m.E, f.E2, sm, vf, arrangement), "estimate",
+                key, transverse_strength(E2, m.E, f.E2, sm, vf, arrangement), "estimate",
                 "Kies (1962); Kaw (2006) Sec. 3.3, strain magnification",
-                f"{how2} ({label}); {arrangement} array; E2 from {el.model}",
+                f"{how2} ({label}); {array_note}; E2 from {el.model}",
             )
     return out

@@ -87,7 +87,8 @@ def schapery(fibre: Any, matrix: Any, vf: ArrayLike) -> tuple[Array, Array]:
     Examples
     --------
     >>> from micromech.homogenize import FibrePhase, MatrixPhase
-    >>> a1, a2 = schapery(FibrePhase.isotropic(72e9, 0.22, 5e-6), MatrixPhase(3.5e9, 0.35, 60e-6), 0.6)
+    >>> f = FibrePhase.isotropic(72e9, 0.22, 5e-6)
+    >>> a1, a2 = schapery(f, MatrixPhase(3.5e9, 0.35, 60e-6), 0.6)
     >>> round(float(a1) * 1e6, 3)
     6.675
     """

@@ -115,7 +115,8 @@ def isotropic(K: ArrayLike, G: ArrayLike) -> TI:
     K = np.asarray(K, dtype=np.float64)
     G = np.asarray(G, dtype=np.float64)
     lam = K - (2.0 / 3.0) * G
-    return TI(2.0 * K + (2.0 / 3.0) * G, K + (4.0 / 3.0) * G, SQ2 * lam, SQ2 * lam, 2.0 * G, 2.0 * G)
+    return TI(2.0 * K + (2.0 / 3.0) * G, K + (4.0 / 3.0) * G, SQ2 * lam, SQ2 * lam, 2.0 * G,
+              2.0 * G)
 
 
 def from_hill(k: ArrayLike, l: ArrayLike, n: ArrayLike, m: ArrayLike, p: ArrayLike) -> TI:

@@ -244,8 +244,27 @@ def _bounds(case: Any, angles: Sequence[float]) -> tuple[Array, Array | None]:
     return C_V, S_R
 
 
-def _complete(est: Mapping[str, ElasticConstants]) -> dict[str, ElasticConstants]:
-    return {k: v for k, v in est.items() if v.complete and k not in ("voigt", "reuss")}
+def _plies(est: Mapping[str, ElasticConstants]) -> dict[str, ElasticConstants]:
+    """Complete transversely isotropic plies from every estimate that gives enough constants.
+
+    Where an estimate lacks nu23 but gives E2 and G23 (Hashin-Shtrikman), nu23 = E2 / (2 G23)
+    - 1 (transverse isotropy). Where it lacks G23 (Halpin-Tsai gives E1, E2, nu12, G12), the
+    ply takes Mori-Tanaka's nu23 and G23 = E2 / (2 (1 + nu23)).
+    """
+    mt = est["mori_tanaka"]
+    out: dict[str, ElasticConstants] = {}
+    for k, v in est.items():
+        if k in ("voigt", "reuss"):
+            continue
+        E1, E2, nu12, G12, G23, nu23 = (v.get(n) for n in ("E1", "E2", "nu12", "G12", "G23",
+                                                           "nu23"))
+        if E1 is None or E2 is None or nu12 is None or G12 is None:
+            continue
+        if nu23 is None:
+            nu23 = E2 / (2.0 * G23) - 1.0 if G23 is not None else mt.get("nu23")
+        out[k] = ElasticConstants.transversely_isotropic(E1, E2, nu12, G12, nu23=nu23,
+                                                         model=k, source=v.source)
+    return out
 
 
 def _stack(ply: ElasticConstants, angles: Sequence[float]) -> Any:
@@ -293,7 +312,7 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
     vf = float(comp.volume_fraction)
     stack = arch in _STACK_ARCH
     angles = _layup_angles(case) if stack else (0.0,)
-    est = dict(estimate(comp))
+    est = dict(estimate(comp, strengths=False))
     # the best estimate over a grid of fractions, for solving the fraction of a value
     top = min(comp.packing_limit, 1.0 - float(comp.void_fraction)) * 0.98
     grid = np.linspace(0.0, top, _GRID_POINTS)
@@ -301,7 +320,7 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
                           void_fraction=comp.void_fraction)
     hs_ok = comp.arrangement in ("random", "hexagonal")
     if stack:
-        models = {f"stack_{k}": _stack(v, angles) for k, v in _complete(est).items()}
+        models = {f"stack_{k}": _stack(v, angles) for k, v in _plies(est).items()}
         consts = {k: r.constants for k, r in models.items()}
         best = "stack_mori_tanaka"
         C_best = models[best].stiffness
@@ -342,6 +361,10 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
         applicable = hs_ok or (not stack and name in ("E1", "G12", "G13"))
         if kind in ("modulus", "shear") and lo_key in values and hi_key in values and applicable:
             hs = (values[lo_key], values[hi_key])
+            if stack and bv is not None:
+                # stacking bounded plies is no bound itself (the plies' Poisson ratios enter):
+                # the band always reaches the stack of Mori-Tanaka (= HS lower) plies
+                hs = (min(*hs, bv), max(*hs, bv))
         curve_vals = _const(grid_consts, name)
         fc = None if curve_vals is None else (grid, np.asarray(curve_vals, dtype=np.float64))
         out[name] = Expectation(
@@ -356,8 +379,9 @@ def _stack_bands(
     angles: Sequence[float], names: Sequence[str],
 ) -> dict[str, Band]:
     """Bands of stack properties: stacks of plies at the ends of their expected bands."""
-    mt = est["mori_tanaka"]
-    ht = est.get("halpin_tsai")
+    plies = _plies(est)
+    mt = plies["mori_tanaka"]
+    ht = plies.get("halpin_tsai")
     ends: dict[str, tuple[Array, Array]] = {}
     for n in ("E1", "E2", "nu12", "G12", "nu23"):
         b = fibre_band(n, mt.get(n), vf, arrangement,  # type: ignore[arg-type]
@@ -371,7 +395,7 @@ def _stack_bands(
         _ti_ply(lo("E1"), lo("E2"), lo("nu12"), lo("G12"), lo("nu23")),
         mt,
     ]
-    if ht is not None and ht.complete:
+    if ht is not None:
         corners.append(ht)
     stacks = [_stack(c, angles).constants for c in corners]
     basis = (f"stacks of plies at the ends of their expected bands (measured spread of "
@@ -525,18 +549,31 @@ def _read_curve(lc: Any, size: Sequence[float] | None) -> Any:
 
 
 def _strength_limits(case: Any) -> tuple[float | None, float | None]:
-    """(matrix yield, Voigt average of the phase strengths), Pa, where known."""
+    """Limit-analysis bounds of a strength, Pa, where the phase strengths are known.
+
+    Lower: the weakest phase present (uniform stress field: the matrix yield when the fibres
+    are stronger); upper: the Voigt average of the phase strengths (uniform strain rate), with
+    the matrix tensile strength (or its yield strength) and the fibre tensile strength.
+    """
+    from micromech.homogenize import yield_bounds
+
     comp = case.composite
     fs = getattr(comp.fibre, "strengths", None)
     ms = getattr(comp.matrix, "strengths", None)
+    f_strength = None if fs is None else fs.Xt
     m_yield = None if ms is None else ms.yield_strength
     m_strength = None if ms is None else (ms.Xt if ms.Xt is not None else ms.yield_strength)
-    f_strength = None if fs is None else fs.Xt
-    upper = None
+    vf, vv = float(comp.volume_fraction), float(comp.void_fraction)
+    fractions = [vf, 1.0 - vf - vv, vv]
+    lower = upper = None
+    if m_yield is not None:
+        lo, _ = yield_bounds([np.inf if f_strength is None else f_strength, m_yield, 0.0],
+                             fractions)
+        lower = float(lo) if lo > 0 else None
     if m_strength is not None and f_strength is not None:
-        vf = float(comp.volume_fraction)
-        upper = vf * f_strength + (1.0 - vf - float(comp.void_fraction)) * m_strength
-    return m_yield, upper
+        _, up = yield_bounds([f_strength, m_strength, 0.0], fractions)
+        upper = float(up)
+    return lower, upper
 
 
 # ------------------------------------------------------------------------------------------

@@ -1038,7 +1038,8 @@ def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]
                                    suffix=suffix)
         os.close(fd)
         try:
-            fig.savefig(tmp, dpi=150)
+            fig.savefig(tmp, dpi=150, bbox_inches="tight")
+            os.chmod(tmp, _file_mode(out))
             os.replace(tmp, out)
         except BaseException:
             Path(tmp).unlink(missing_ok=True)
@@ -1057,8 +1058,19 @@ def _write_atomic(path: Path, text: str) -> Path:
             fh.write(text)
             fh.flush()
             os.fsync(fh.fileno())
+        os.chmod(tmp, _file_mode(path))
         os.replace(tmp, path)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)
         raise
     return path
+
+
+def _file_mode(path: Path) -> int:
+    """Permissions for a new output: those of the file it replaces, else 0o666 less the umask."""
+    try:
+        return path.stat().st_mode & 0o777
+    except FileNotFoundError:
+        mask = os.umask(0o022)
+        os.umask(mask)
+        return 0o666 & ~mask

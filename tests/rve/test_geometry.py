@@ -290,6 +290,22 @@ def test_writing_replaces_an_existing_file_and_leaves_no_temporary(tmp_path: Pat
     assert sorted(p.name for p in tmp_path.iterdir()) == ["c.csv"]
 
 
+def test_written_file_gets_ordinary_permissions_not_the_temporary_ones(tmp_path: Path) -> None:
+    import os
+
+    mask = os.umask(0o022)
+    try:
+        new = square_cell(0.5, D).to_json(tmp_path / "new.json")
+        assert new.stat().st_mode & 0o777 == 0o644
+        kept = tmp_path / "kept.csv"
+        kept.write_text("x\n")
+        kept.chmod(0o640)
+        square_cell(0.5, D).to_csv(kept)
+        assert kept.stat().st_mode & 0o777 == 0o640
+    finally:
+        os.umask(mask)
+
+
 def test_json_has_si_circles_stats_guidance_and_caution(tmp_path: Path) -> None:
     a = hexagonal_cell(0.6, D)
     data = json.loads(a.to_json(tmp_path / "c.json").read_text())
@@ -523,7 +539,8 @@ def test_cli_bad_input_exits_2_with_the_rule(args: tuple[str, ...], message: str
 def test_cli_never_overwrites_the_case_file(case_file: Path) -> None:
     before = case_file.read_text()
     res = run_cli(str(case_file), "--out", str(case_file))
-    assert res.exit_code == 2 and "--out = " in res.output and "is the input case file" in res.output
+    assert res.exit_code == 2 and "--out = " in res.output
+    assert "is the input case file" in res.output
     res = run_cli(str(case_file), "--plot", str(case_file))
     assert res.exit_code == 2 and "--plot = " in res.output
     assert case_file.read_text() == before

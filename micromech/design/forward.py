@@ -1,0 +1,550 @@
+"""Forward models for design: properties of a composite as vectorised functions of the fraction.
+
+:class:`Constituents` gathers what the estimates need besides the fibre fraction (fibre and
+matrix phases, possibly arrays of several constituents, inclusion shape, voids, densities,
+packing limit and an optional layup). :func:`properties_at` evaluates one model at an array of
+fractions and returns a lazy mapping of:
+
+* the ply constants of the estimate (``E1 E2 E3 G12 G13 G23 nu12 nu13 nu23 alpha1 alpha2
+  alpha3``, as the model gives them);
+* ``density`` = v_f rho_f + (1 - v_f - v_v) rho_m and ``weight_fraction`` = v_f rho_f / density
+  (voids massless; Agarwal, Broutman and Chandrashekhara 2006, Sec. 3.2), when both densities are
+  known; the laminate has the density of its plies;
+* with a layup, the laminate's in-plane constants ``Ex Ey Gxy nuxy`` from classical laminate
+  theory with plies of the estimated constants (:func:`laminate_in_plane`).
+
+Models per inclusion shape: continuous fibres use ``rule_of_mixtures, halpin_tsai, chamis,
+cylinders, mori_tanaka`` and the Hill-Hashin fibre bounds; spheroids and spheres use
+``halpin_tsai`` (with the aspect ratio, >= 1) and ``mori_tanaka`` and, for an isotropic
+inclusion, Willis' spheroid bounds or the isotropic Hashin-Shtrikman bounds. Voids enter
+Mori-Tanaka as a third phase and the density; the other estimates and the bounds do not take
+voids (they see the fibre fraction only).
+
+References
+----------
+.. [1] Agarwal, B. D., Broutman, L. J., Chandrashekhara, K. (2006). *Analysis and Performance of
+   Fiber Composites*, 3rd ed., Wiley, Sec. 3.2 (densities and weight fractions with voids).
+.. [2] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., CRC Press, Eq. (2.93)
+   (reduced stiffness), Eqs. (2.103)-(2.104) (transformation), Eqs. (4.28)-(4.29) (ABD) and
+   Sec. 4.5 (laminate engineering constants).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Iterator, Mapping
+from dataclasses import dataclass, fields, replace
+from typing import Any, Literal
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from micromech.errors import FractionError, InputError
+from micromech.homogenize.phases import FibrePhase, MatrixPhase
+from micromech.results import ElasticConstants
+
+__all__ = [
+    "SIZING_MODELS",
+    "BOUND_MODELS",
+    "Constituents",
+    "applicable_models",
+    "estimate_at",
+    "properties_at",
+    "forward_model",
+    "bound_models",
+    "mass_at",
+    "laminate_in_plane",
+]
+
+Array = NDArray[np.float64]
+
+#: Estimates used for sizing, in report order.
+SIZING_MODELS: tuple[str, ...] = ("rule_of_mixtures", "halpin_tsai", "chamis", "cylinders",
+                                  "mori_tanaka")
+#: Keys of the rigorous bounds.
+BOUND_MODELS: tuple[str, ...] = ("hashin_shtrikman_lower", "hashin_shtrikman_upper")
+
+_ELASTIC = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23", "alpha1", "alpha2",
+            "alpha3")
+_LAMINATE = ("Ex", "Ey", "Gxy", "nuxy")
+
+
+def _opt_arr(x: ArrayLike | None) -> Array | None:
+    return None if x is None else np.asarray(x, dtype=np.float64)
+
+
+@dataclass(frozen=True, eq=False)
+class Constituents:
+    """Everything a design estimate needs besides the fibre volume fraction.
+
+    Parameters
+    ----------
+    fibre : FibrePhase or material
+        The fibre (constants may be arrays of shape (...) for several fibres at once).
+    matrix : MatrixPhase or material
+        The isotropic matrix (arrays broadcast with the fibre's).
+    inclusion : {"continuous", "spheroid", "sphere"}
+        Inclusion shape.
+    aspect_ratio : float, optional
+        Spheroid length over diameter (spheroid only).
+    void_fraction : float
+        Void volume fraction, in [0, 1).
+    fibre_density, matrix_density : array_like, optional
+        Densities, kg/m^3 (needed for density, weight fraction and specific properties).
+    packing_limit : float
+        Largest fibre fraction, in (0, 1].
+    angles : sequence of float, optional
+        Ply angles of a layup, degrees, bottom to top (for Ex, Ey, Gxy, nuxy).
+    ply_thickness : float
+        Ply thickness, m (the in-plane constants do not depend on it for one ply material).
+    layup : str
+        The laminate code, for labels.
+    name : str
+        Label.
+
+    Raises
+    ------
+    InputError
+        For an unknown inclusion, a spheroid without aspect ratio or a packing limit outside
+        (0, 1].
+    FractionError
+        For a void fraction outside [0, 1).
+    """
+
+    fibre: FibrePhase
+    matrix: MatrixPhase
+    inclusion: Literal["continuous", "spheroid", "sphere"] = "continuous"
+    aspect_ratio: float | None = None
+    void_fraction: float = 0.0
+    fibre_density: Array | None = None
+    matrix_density: Array | None = None
+    packing_limit: float = 1.0
+    angles: tuple[float, ...] | None = None
+    ply_thickness: float = 1e-3
+    layup: str = ""
+    name: str = ""
+
+    def __post_init__(self) -> None:
+        object.__setattr__(self, "fibre", FibrePhase.from_material(self.fibre))
+        object.__setattr__(self, "matrix", MatrixPhase.from_material(self.matrix))
+        if self.inclusion not in ("continuous", "spheroid", "sphere"):
+            raise InputError(f"inclusion = {self.inclusion!r}: expected continuous, spheroid or "
+                             "sphere")
+        if self.inclusion == "spheroid" and self.aspect_ratio is None:
+            raise InputError("aspect_ratio: a spheroid inclusion needs an aspect ratio")
+        if not 0.0 < float(self.packing_limit) <= 1.0:
+            raise InputError(f"packing_limit = {self.packing_limit!r} must lie in (0, 1]")
+        vv = float(self.void_fraction)
+        if not 0.0 <= vv < 1.0:
+            raise FractionError(f"void_fraction = {vv!r} must lie in [0, 1)")
+        object.__setattr__(self, "void_fraction", vv)
+        object.__setattr__(self, "packing_limit", float(self.packing_limit))
+        object.__setattr__(self, "fibre_density", _opt_arr(self.fibre_density))
+        object.__setattr__(self, "matrix_density", _opt_arr(self.matrix_density))
+        if self.angles is not None:
+            object.__setattr__(self, "angles", tuple(float(a) for a in self.angles))
+
+    @classmethod
+    def from_composite(
+        cls,
+        composite: Any,
+        *,
+        layup: str | None = None,
+        ply_thickness: float | None = None,
+        fibre: Any = None,
+        matrix: Any = None,
+        fibre_density: ArrayLike | None = None,
+        matrix_density: ArrayLike | None = None,
+    ) -> Constituents:
+        """Build from a :class:`~micromech.materials.Composite`, optionally overriding phases.
+
+        Parameters
+        ----------
+        composite : Composite
+            Constituents, inclusion, arrangement (packing limit) and void fraction.
+        layup : str, optional
+            Laminate code (e.g. ``"[0/90]s"``) for the laminate properties.
+        ply_thickness : float, optional
+            Ply thickness, m.
+        fibre, matrix : FibrePhase, MatrixPhase or material, optional
+            Replace the composite's constituents (arrays: several constituents at once).
+        fibre_density, matrix_density : array_like, optional
+            Replace the densities, kg/m^3.
+
+        Returns
+        -------
+        Constituents
+            The design description.
+        """
+        angles = None
+        if layup:
+            from micromech.laminate.layup import parse_layup
+
+            angles = parse_layup(layup)
+        f = composite.fibre if fibre is None else fibre
+        m = composite.matrix if matrix is None else matrix
+        rf = fibre_density if fibre_density is not None else getattr(f, "density", None)
+        rm = matrix_density if matrix_density is not None else getattr(m, "density", None)
+        return cls(
+            fibre=f, matrix=m, inclusion=composite.inclusion,
+            aspect_ratio=composite.aspect_ratio if composite.inclusion == "spheroid" else None,
+            void_fraction=float(np.max(composite.void_fraction)), fibre_density=rf,
+            matrix_density=rm, packing_limit=composite.packing_limit, angles=angles,
+            ply_thickness=1e-3 if ply_thickness is None else float(ply_thickness),
+            layup=layup or "", name=getattr(composite, "name", "") or "",
+        )
+
+    @classmethod
+    def from_case(cls, case: Any) -> Constituents:
+        """Build from a loaded case (its [composite] and, when given, its [laminate] layup).
+
+        Parameters
+        ----------
+        case : Case
+            From :func:`micromech.case.load_case`.
+
+        Returns
+        -------
+        Constituents
+            The design description.
+
+        Raises
+        ------
+        InputError
+            If the case has no [composite] (fibre, matrix and fraction).
+        """
+        comp = getattr(case, "composite", None)
+        if comp is None:
+            raise InputError(f"case {getattr(case, 'name', '')!r}: sizing needs [fibre], [matrix] "
+                             "and [composite]")
+        lam = getattr(case, "laminate", None)
+        return cls.from_composite(
+            comp, layup=None if lam is None else lam.layup,
+            ply_thickness=None if lam is None else lam.ply_thickness,
+        )
+
+    @property
+    def upper_fraction(self) -> float:
+        """Largest admissible fibre fraction: the packing limit, and 1 - void fraction."""
+        return min(self.packing_limit, 1.0 - self.void_fraction)
+
+    @property
+    def has_density(self) -> bool:
+        """Whether both densities are known."""
+        return self.fibre_density is not None and self.matrix_density is not None
+
+    @property
+    def shape(self) -> tuple[int, ...]:
+        """Broadcast shape of the constituent constants (``()`` for one fibre and matrix)."""
+        arrays = [getattr(self.fibre, f.name) for f in fields(self.fibre)]
+        arrays += [getattr(self.matrix, f.name) for f in fields(self.matrix)]
+        arrays += [self.fibre_density, self.matrix_density]
+        return np.broadcast_shapes(*(np.shape(a) for a in arrays if a is not None))
+
+    def expanded(self) -> Constituents:
+        """Return a copy whose constants have a trailing axis, to broadcast against a sweep axis.
+
+        Returns
+        -------
+        Constituents
+            Constants reshaped from (...) to (..., 1) (unchanged when scalar).
+        """
+        if self.shape == ():
+            return self
+
+        def ex(x: Array | None) -> Array | None:
+            return None if x is None else np.broadcast_to(x, self.shape)[..., None]
+
+        f = FibrePhase(**{k.name: ex(getattr(self.fibre, k.name)) for k in fields(self.fibre)})
+        m = MatrixPhase(**{k.name: ex(getattr(self.matrix, k.name)) for k in fields(self.matrix)})
+        return replace(self, fibre=f, matrix=m, fibre_density=ex(self.fibre_density),
+                       matrix_density=ex(self.matrix_density))
+
+
+def applicable_models(c: Constituents) -> tuple[str, ...]:
+    """Return the estimate keys that apply to the inclusion shape.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+
+    Returns
+    -------
+    tuple of str
+        Subset of :data:`SIZING_MODELS`, in its order.
+    """
+    if c.inclusion == "continuous":
+        return SIZING_MODELS
+    ar = 1.0 if c.inclusion == "sphere" else float(c.aspect_ratio)  # type: ignore[arg-type]
+    return ("halpin_tsai", "mori_tanaka") if ar >= 1.0 else ("mori_tanaka",)
+
+
+def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
+    """Evaluate one estimate (or bound) at an array of fibre fractions.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+    model : str
+        A key of :data:`SIZING_MODELS` or :data:`BOUND_MODELS`.
+    vf : array_like, shape (...)
+        Fibre volume fractions (broadcast with the constituent constants).
+
+    Returns
+    -------
+    ElasticConstants
+        The estimate.
+
+    Raises
+    ------
+    InputError
+        If the model does not apply to the inclusion shape (or is unknown).
+
+    References
+    ----------
+    See the estimators in :mod:`micromech.homogenize` (each names its source).
+    """
+    from micromech.homogenize.chamis import chamis
+    from micromech.homogenize.cylinders import cylinders
+    from micromech.homogenize.halpin_tsai import halpin_tsai
+    from micromech.homogenize.mori_tanaka import mori_tanaka
+    from micromech.homogenize.rule_of_mixtures import rule_of_mixtures
+
+    f, m, v = c.fibre, c.matrix, np.asarray(vf, dtype=np.float64)
+    cont = c.inclusion == "continuous"
+    if model in BOUND_MODELS:
+        pair = _bounds_pair(c, v)
+        if pair is None:
+            raise InputError(f"model {model!r}: no bounds for {c.inclusion} inclusions of an "
+                             "anisotropic fibre")
+        return pair[0] if model.endswith("lower") else pair[1]
+    if model not in applicable_models(c):
+        raise InputError(f"model {model!r} does not apply to {c.inclusion} inclusions; use one "
+                         f"of {', '.join(applicable_models(c))}")
+    if model == "mori_tanaka":
+        return mori_tanaka(f, m, v, c.inclusion, c.aspect_ratio if c.inclusion == "spheroid"
+                           else None, void_fraction=c.void_fraction)
+    if model == "halpin_tsai":
+        ar = None if cont else (1.0 if c.inclusion == "sphere" else c.aspect_ratio)
+        return halpin_tsai(f, m, v, aspect_ratio=ar)
+    fn: Callable[..., ElasticConstants] = {
+        "rule_of_mixtures": rule_of_mixtures, "chamis": chamis, "cylinders": cylinders,
+    }[model]
+    return fn(f, m, v)
+
+
+def _bounds_pair(c: Constituents, v: Array) -> tuple[ElasticConstants, ElasticConstants] | None:
+    from micromech.homogenize import bounds as hb
+
+    if c.inclusion == "continuous":
+        return hb.hashin_shtrikman_fibre(c.fibre, c.matrix, v)
+    if not c.fibre.is_isotropic:
+        return None
+    if c.inclusion == "sphere":
+        return hb.hashin_shtrikman(c.fibre, c.matrix, v)
+    return hb.hashin_shtrikman_spheroid(c.fibre, c.matrix, v, c.aspect_ratio)
+
+
+def mass_at(c: Constituents, vf: ArrayLike) -> dict[str, Array]:
+    """Composite density and fibre weight fraction at fibre fractions (empty without densities).
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+    vf : array_like, shape (...)
+        Fibre volume fractions.
+
+    Returns
+    -------
+    dict
+        ``density`` = v_f rho_f + (1 - v_f - v_v) rho_m (kg/m^3) and ``weight_fraction`` =
+        v_f rho_f / density; empty when a density is missing.
+
+    References
+    ----------
+    Agarwal, Broutman and Chandrashekhara (2006), Sec. 3.2 (from memory).
+    """
+    if not c.has_density:
+        return {}
+    v = np.asarray(vf, dtype=np.float64)
+    mf = v * c.fibre_density
+    rho = mf + (1.0 - v - c.void_fraction) * c.matrix_density
+    return {"density": rho, "weight_fraction": mf / rho}
+
+
+class _Properties(Mapping[str, Array]):
+    """Lazy mapping: the estimate's constants, mass properties and laminate constants."""
+
+    def __init__(self, c: Constituents, constants: ElasticConstants, vf: Array) -> None:
+        self._c, self._k, self._vf = c, constants, vf
+        self._cache: dict[str, Array] = {}
+
+    def _names(self) -> list[str]:
+        out = [k for k in _ELASTIC if self._k.get(k) is not None]
+        if self._c.has_density:
+            out += ["density", "weight_fraction"]
+        if self._c.angles and all(self._k.get(k) is not None for k in ("E1", "E2", "nu12", "G12")):
+            out += list(_LAMINATE)
+        return out
+
+    def __getitem__(self, key: str) -> Array:
+        if key in _ELASTIC:
+            v = self._k.get(key)
+            if v is None:
+                raise KeyError(key)
+            return v
+        if key not in self._cache:
+            if key in ("density", "weight_fraction"):
+                self._cache.update(mass_at(self._c, self._vf))
+            elif key in _LAMINATE and key in self._names():
+                k = self._k
+                self._cache.update(laminate_in_plane(
+                    k.E1, k.E2, k.nu12, k.G12, self._c.angles,  # type: ignore[arg-type]
+                    np.full(len(self._c.angles), self._c.ply_thickness),  # type: ignore[arg-type]
+                ))
+        if key not in self._cache:
+            raise KeyError(key)
+        return self._cache[key]
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._names())
+
+    def __len__(self) -> int:
+        return len(self._names())
+
+
+def properties_at(c: Constituents, model: str, vf: ArrayLike) -> Mapping[str, Array]:
+    """All design properties of one model at fibre fractions, as a lazy mapping.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+    model : str
+        Estimate or bound key.
+    vf : array_like, shape (...)
+        Fibre volume fractions.
+
+    Returns
+    -------
+    Mapping of str to ndarray
+        Ply constants, ``density``, ``weight_fraction`` and (with a layup) ``Ex Ey Gxy nuxy``;
+        names the model does not give are absent.
+    """
+    v = np.asarray(vf, dtype=np.float64)
+    return _Properties(c, estimate_at(c, model, v), v)
+
+
+def forward_model(c: Constituents, model: str) -> Callable[[Array], Mapping[str, Array]]:
+    """Return ``vf -> properties_at(c, model, vf)``, the form the sizing and sweeps take.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+    model : str
+        Estimate or bound key.
+
+    Returns
+    -------
+    callable
+        The forward model.
+    """
+    def f(vf: Array) -> Mapping[str, Array]:
+        return properties_at(c, model, vf)
+
+    return f
+
+
+def bound_models(c: Constituents) -> tuple[Callable[[Array], Mapping[str, Array]],
+                                           Callable[[Array], Mapping[str, Array]]] | None:
+    """Lower and upper bound forward models, or None where no bounds apply.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+
+    Returns
+    -------
+    tuple of callable or None
+        ``(lower, upper)``.
+    """
+    if c.inclusion != "continuous" and not c.fibre.is_isotropic:
+        return None
+    return forward_model(c, BOUND_MODELS[0]), forward_model(c, BOUND_MODELS[1])
+
+
+def laminate_in_plane(
+    E1: ArrayLike,
+    E2: ArrayLike,
+    nu12: ArrayLike,
+    G12: ArrayLike,
+    angles: ArrayLike,
+    thicknesses: ArrayLike | None = None,
+    *,
+    bending: Literal["free", "restrained"] = "free",
+) -> dict[str, Array]:
+    """In-plane engineering constants of a laminate of one ply material, vectorised.
+
+    Parameters
+    ----------
+    E1, E2, nu12, G12 : array_like, shape (...)
+        Ply constants, Pa (dimensionless nu12).
+    angles : array_like, shape (n,) or (..., n)
+        Ply angles, degrees, bottom to top (the last axis runs over the plies; leading axes
+        broadcast with the ply constants, e.g. an angle sweep).
+    thicknesses : array_like, shape (n,), optional
+        Ply thicknesses, m (equal plies by default).
+    bending : {"free", "restrained"}
+        "free": from the in-plane block of ABD^-1, i.e. (A - B D^-1 B)^-1; "restrained": A^-1.
+        Equal for symmetric laminates.
+
+    Returns
+    -------
+    dict of str to ndarray, shape (...)
+        ``Ex = 1/(h a11)``, ``Ey = 1/(h a22)``, ``Gxy = 1/(h a66)``, ``nuxy = -a12/a11``.
+
+    Raises
+    ------
+    InputError
+        For no plies, thicknesses of the wrong length or an unknown ``bending``.
+
+    References
+    ----------
+    Kaw (2006), Eq. (2.93), Eqs. (2.103)-(2.104), Eqs. (4.28)-(4.29) and Sec. 4.5.
+
+    Examples
+    --------
+    >>> c = laminate_in_plane(181e9, 10.3e9, 0.28, 7.17e9, [0.0])
+    >>> round(float(c["Ex"]) / 1e9, 6)
+    181.0
+    """
+    from micromech.laminate.clt import reduced_stiffness, transformed_reduced_stiffness
+
+    if bending not in ("free", "restrained"):
+        raise InputError(f"bending: expected 'free' or 'restrained', got {bending!r}")
+    ang = np.asarray(angles, dtype=np.float64)
+    if ang.ndim == 0 or ang.shape[-1] == 0:
+        raise InputError("angles: a laminate needs at least one ply")
+    n = ang.shape[-1]
+    t = np.full(n, 1.0) if thicknesses is None else np.asarray(thicknesses, dtype=np.float64)
+    if t.shape != (n,):
+        raise InputError(f"thicknesses: {t.shape} given for {n} plies")
+    z = np.concatenate(([0.0], np.cumsum(t))) - t.sum() / 2.0
+    h = float(t.sum())
+    Q = reduced_stiffness(E1, E2, nu12, G12)
+    A = B = D = None
+    for k in range(n):
+        Qb = transformed_reduced_stiffness(Q, ang[..., k])
+        w1, w2, w3 = z[k + 1] - z[k], (z[k + 1] ** 2 - z[k] ** 2) / 2, (z[k + 1] ** 3 - z[k] ** 3) / 3
+        A = Qb * w1 if A is None else A + Qb * w1
+        B = Qb * w2 if B is None else B + Qb * w2
+        D = Qb * w3 if D is None else D + Qb * w3
+    assert A is not None and B is not None and D is not None
+    coupled = bending == "free" and bool(np.any(np.abs(B) > 1e-12 * np.abs(A).max() * h))
+    a = np.linalg.inv(A - B @ np.linalg.solve(D, B) if coupled else A)
+    return {"Ex": 1.0 / (h * a[..., 0, 0]), "Ey": 1.0 / (h * a[..., 1, 1]),
+            "Gxy": 1.0 / (h * a[..., 2, 2]), "nuxy": -a[..., 0, 1] / a[..., 0, 0]}

@@ -1,0 +1,175 @@
+"""Terminal table and fraction plot for the ``micromech estimate`` command.
+
+Both read an :class:`~micromech.homogenize.Estimates` and only format it; the plot evaluates the
+same estimates over a fibre-fraction sweep with one vectorised call.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+
+from micromech.homogenize.estimate import BOUND_KEYS, MODEL_KEYS, Estimates, estimate
+from micromech.homogenize.strength import CAUTION
+
+__all__ = ["estimate_table", "plot_estimates", "CAUTION", "PROPERTIES"]
+
+#: Rows of the table: name, label, unit, factor from SI.
+PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
+    ("E1", "E1", "GPa", 1e-9),
+    ("E2", "E2", "GPa", 1e-9),
+    ("G12", "G12", "GPa", 1e-9),
+    ("G23", "G23", "GPa", 1e-9),
+    ("nu12", "nu12", "-", 1.0),
+    ("nu23", "nu23", "-", 1.0),
+    ("alpha1", "alpha1", "1e-6/K", 1e6),
+    ("alpha2", "alpha2", "1e-6/K", 1e6),
+)
+
+_SHORT = {
+    "voigt": "Voigt", "reuss": "Reuss", "hashin_shtrikman_lower": "HS low",
+    "hashin_shtrikman_upper": "HS up", "rule_of_mixtures": "RoM", "halpin_tsai": "H-T",
+    "chamis": "Chamis", "cylinders": "CCA", "mori_tanaka": "M-T",
+}
+
+_COLOURS = {"rule_of_mixtures": "tab:blue", "halpin_tsai": "tab:orange", "chamis": "tab:green",
+            "cylinders": "tab:red", "mori_tanaka": "tab:purple"}
+
+# Lower bounds first, estimates, then upper bounds: the table reads as a band.
+_ORDER = ("reuss", "hashin_shtrikman_lower", "rule_of_mixtures", "halpin_tsai", "chamis",
+          "cylinders", "mori_tanaka", "hashin_shtrikman_upper", "voigt")
+
+
+def _fmt(v: Any, factor: float) -> str:
+    if v is None:
+        return "-"
+    a = np.asarray(v, dtype=np.float64) * factor
+    if a.size == 0 or not np.all(np.isfinite(a)):
+        return "-"
+    if a.size == 1:
+        return f"{float(a.ravel()[0]):.4g}"
+    return f"{float(a.min()):.3g}..{float(a.max()):.3g}"
+
+
+def estimate_table(est: Estimates) -> str:
+    """Format the estimates as a plain-text table (moduli in GPa, strengths in MPa).
+
+    Parameters
+    ----------
+    est : Estimates
+        The results of :func:`micromech.homogenize.estimate`.
+
+    Returns
+    -------
+    str
+        Property rows; columns ordered lower bounds, estimates, upper bounds; then the strength
+        estimates, the sources, the absent models and the caution.
+    """
+    comp = est.composite
+    keys = [k for k in _ORDER if k in est.models]
+    vf = np.asarray(comp.volume_fraction)
+    head = f"{est.case or 'composite'}: fibre fraction {_fmt(vf, 1.0)}, " \
+        f"{getattr(comp, 'inclusion', 'continuous')}"
+    if getattr(comp, "aspect_ratio", None) not in (None, 1.0):
+        head += f" (aspect ratio {comp.aspect_ratio:g})"
+    vv = np.asarray(getattr(comp, "void_fraction", 0.0))
+    if np.any(vv > 0):
+        head += f", void fraction {_fmt(vv, 1.0)}"
+    lines = [head, ""]
+    width = 10
+    label_w = 16
+    hdr = "property".ljust(label_w) + "".join(_SHORT[k].rjust(width) for k in keys)
+    kinds = "".ljust(label_w) + "".join(
+        ("bound" if k in BOUND_KEYS else "estimate").rjust(width) for k in keys)
+    lines += [hdr, kinds, "-" * len(hdr)]
+    for name, label, unit, factor in PROPERTIES:
+        row = f"{label} [{unit}]".ljust(label_w)
+        row += "".join(_fmt(est.models[k].get(name), factor).rjust(width) for k in keys)
+        lines.append(row)
+    if est.strengths:
+        lines += ["", "strength".ljust(40) + "MPa".rjust(10) + "  kind".ljust(14) + "  source"]
+        lines.append("-" * 96)
+        for k, s in est.strengths.items():
+            lines.append(f"{k.replace('_', ' '):<40}{_fmt(s.value, 1e-6):>10}  {s.kind:<12}"
+                         f"  {s.source}")
+    lines += ["", "sources:"]
+    lines += [f"  {_SHORT[k]:<7} {est.models[k].source}" for k in keys]
+    if est.notes:
+        lines += ["", "not applied:"]
+        lines += [f"  {k}: {v}" for k, v in est.notes.items()]
+    lines += ["", f"Caution: {CAUTION}"]
+    return "\n".join(lines)
+
+
+def plot_estimates(
+    est: Estimates, path: str | Path, *, points: int = 101,
+    properties: tuple[str, ...] = ("E1", "E2", "G12", "G23", "nu12", "alpha2"),
+) -> Path:
+    """Plot each property against fibre fraction, bounds shaded, the case's fraction marked.
+
+    Parameters
+    ----------
+    est : Estimates
+        Results for the case; its composite is swept from 0 to its packing limit.
+    path : str or Path
+        PNG file to write.
+    points : int
+        Number of fractions.
+    properties : tuple of str
+        Constants to plot (those no model gives are skipped).
+
+    Returns
+    -------
+    Path
+        The file written.
+    """
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    comp = est.composite
+    limit = float(getattr(comp, "packing_limit", 1.0))
+    vv = float(np.max(np.asarray(getattr(comp, "void_fraction", 0.0))))
+    top = min(limit, 1.0 - vv)
+    v = np.linspace(0.0, top, points)
+    sweep = estimate(comp.with_fraction(v), case=est.case, strengths=False)
+    names = [p for p in properties if any(sweep.models[k].get(p) is not None for k in sweep)]
+    units = {n: (u, f) for n, _, u, f in PROPERTIES}
+    ncol = 3
+    nrow = max(1, -(-len(names) // ncol))
+    fig, axes = plt.subplots(nrow, ncol, figsize=(4.2 * ncol, 3.3 * nrow), squeeze=False)
+    case_vf = np.atleast_1d(np.asarray(comp.volume_fraction, dtype=float))
+    for ax, name in zip(axes.ravel(), names, strict=False):
+        unit, factor = units.get(name, ("", 1.0))
+        band = sweep.band(name)
+        if band is not None:
+            ax.fill_between(v * 100, band[0] * factor, band[1] * factor, color="0.85",
+                            label="bounds")
+        for k in MODEL_KEYS:
+            if k in BOUND_KEYS or k not in sweep.models:
+                continue
+            y = sweep.models[k].get(name)
+            if y is not None:
+                ls = "--" if k == "cylinders" else "-"  # equal to Mori-Tanaka for fibres
+                ax.plot(v * 100, np.broadcast_to(y, v.shape) * factor, label=_SHORT[k], lw=1.3,
+                        color=_COLOURS.get(k), ls=ls)
+        for x in case_vf:
+            ax.axvline(float(x) * 100, color="k", ls=":", lw=1)
+        ax.set_xlabel("fibre volume fraction [%]")
+        ax.set_ylabel(f"{name} [{unit}]")
+        ax.grid(alpha=0.3)
+    for ax in axes.ravel()[len(names):]:
+        ax.axis("off")
+    if names:
+        axes.ravel()[0].legend(fontsize=7, loc="best")
+    fig.suptitle(f"{est.case or 'composite'}: estimates and bounds (dotted: case fraction)",
+                 fontsize=10)
+    fig.text(0.5, 0.005, CAUTION, ha="center", fontsize=7)
+    fig.tight_layout(rect=(0, 0.03, 1, 0.96))
+    out = Path(path)
+    fig.savefig(out, dpi=120)
+    plt.close(fig)
+    return out
