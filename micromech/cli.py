@@ -429,6 +429,45 @@ def rve_command(
 # --- check (rve results) --------------------------------------------------------------------
 
 
+@cli.command("check")
+@click.argument("case_file", type=click.Path(dir_okay=False))
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option("--report", "report_dir", type=click.Path(file_okay=False),
+              help="Write report.md, report.html and the PNG figures into this folder "
+                   "(never the folder of the input files).")
+@click.option("--offset", type=float, default=None,
+              help="Strain offset of the yield line  [default: the case's, else 0.002]")
+@click.option("--tolerance", "tolerances", multiple=True, metavar="NAME=VALUE",
+              help="Relative tolerance around the best estimate, e.g. E2=0.2 or E2=20% "
+                   "(repeatable); replaces the default band of that property.")
+@click.option("--all-reasons", is_flag=True,
+              help="Also list the reasons of the consistent properties.")
+def check_command(case_file: str, as_json: bool, report_dir: str | None, offset: float | None,
+                  tolerances: tuple[str, ...], all_reasons: bool) -> None:
+    """Grade the simulated RVE results of CASE_FILE against bounds and estimates.
+
+    Each property is consistent, suspect (outside the expected band or a consistency check)
+    or violates_bounds (outside a rigorous bound), with reasons. Exit status: 0, or 1 when any
+    property violates a bound (to gate a pipeline); 2 on bad input.
+    """
+    from micromech.report.check import format_check_text, write_check_report
+    from micromech.rve.check import check_case
+
+    result = check_case(case_file, offset=offset, tolerances=list(tolerances))
+    written = write_check_report(result, report_dir) if report_dir is not None else None
+    if as_json:
+        obj = result.as_dict()
+        if written is not None:
+            obj["report"] = {"markdown": str(written["markdown"]), "html": str(written["html"])}
+        emit_json(obj)
+    else:
+        click.echo(format_check_text(result, all_reasons=all_reasons), nl=False)
+        if written is not None:
+            click.echo(f"report written to {written['html']} and {written['markdown']}")
+    if result.exit_code:
+        click.get_current_context().exit(result.exit_code)
+
+
 # --- demo -----------------------------------------------------------------------------------
 
 

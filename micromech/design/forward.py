@@ -13,12 +13,12 @@ fractions and returns a lazy mapping of:
 * with a layup, the laminate's in-plane constants ``Ex Ey Gxy nuxy`` from classical laminate
   theory with plies of the estimated constants (:func:`laminate_in_plane`).
 
-Models per inclusion shape: continuous fibres use ``rule_of_mixtures, halpin_tsai, chamis,
-cylinders, mori_tanaka`` and the Hill-Hashin fibre bounds; spheroids and spheres use
-``halpin_tsai`` (with the aspect ratio, >= 1) and ``mori_tanaka`` and, for an isotropic
-inclusion, Willis' spheroid bounds or the isotropic Hashin-Shtrikman bounds. Voids enter
-Mori-Tanaka as a third phase and the density; the other estimates and the bounds do not take
-voids (they see the fibre fraction only).
+Models per inclusion shape (as in :func:`micromech.homogenize.estimate.estimate`): continuous
+fibres use ``rule_of_mixtures, halpin_tsai, chamis, cylinders, mori_tanaka`` and the Hill-Hashin
+fibre bounds; spheroids use ``halpin_tsai`` (aspect ratio >= 1) and ``mori_tanaka``, spheres
+``mori_tanaka``, with Willis' spheroid bounds or the isotropic Hashin-Shtrikman bounds for an
+isotropic inclusion. With voids only Mori-Tanaka applies (voids as a third phase) and there are
+no bounds (the lower one is zero); voids also lower the density.
 
 References
 ----------
@@ -273,10 +273,13 @@ def applicable_models(c: Constituents) -> tuple[str, ...]:
     tuple of str
         Subset of :data:`SIZING_MODELS`, in its order.
     """
+    if c.void_fraction > 0.0:
+        return ("mori_tanaka",)
     if c.inclusion == "continuous":
         return SIZING_MODELS
-    ar = 1.0 if c.inclusion == "sphere" else float(c.aspect_ratio)  # type: ignore[arg-type]
-    return ("halpin_tsai", "mori_tanaka") if ar >= 1.0 else ("mori_tanaka",)
+    if c.inclusion == "spheroid" and float(c.aspect_ratio) >= 1.0:  # type: ignore[arg-type]
+        return ("halpin_tsai", "mori_tanaka")
+    return ("mori_tanaka",)
 
 
 def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
@@ -314,10 +317,10 @@ def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
     f, m, v = c.fibre, c.matrix, np.asarray(vf, dtype=np.float64)
     cont = c.inclusion == "continuous"
     if model in BOUND_MODELS:
-        pair = _bounds_pair(c, v)
+        pair = None if c.void_fraction > 0.0 else _bounds_pair(c, v)
         if pair is None:
-            raise InputError(f"model {model!r}: no bounds for {c.inclusion} inclusions of an "
-                             "anisotropic fibre")
+            raise InputError(f"model {model!r}: no bounds with voids, nor for {c.inclusion} "
+                             "inclusions of an anisotropic fibre")
         return pair[0] if model.endswith("lower") else pair[1]
     if model not in applicable_models(c):
         raise InputError(f"model {model!r} does not apply to {c.inclusion} inclusions; use one "
@@ -326,8 +329,7 @@ def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
         return mori_tanaka(f, m, v, c.inclusion, c.aspect_ratio if c.inclusion == "spheroid"
                            else None, void_fraction=c.void_fraction)
     if model == "halpin_tsai":
-        ar = None if cont else (1.0 if c.inclusion == "sphere" else c.aspect_ratio)
-        return halpin_tsai(f, m, v, aspect_ratio=ar)
+        return halpin_tsai(f, m, v, aspect_ratio=None if cont else c.aspect_ratio)
     fn: Callable[..., ElasticConstants] = {
         "rule_of_mixtures": rule_of_mixtures, "chamis": chamis, "cylinders": cylinders,
     }[model]
@@ -472,7 +474,7 @@ def bound_models(c: Constituents) -> tuple[Callable[[Array], Mapping[str, Array]
     tuple of callable or None
         ``(lower, upper)``.
     """
-    if c.inclusion != "continuous" and not c.fibre.is_isotropic:
+    if c.void_fraction > 0.0 or (c.inclusion != "continuous" and not c.fibre.is_isotropic):
         return None
     return forward_model(c, BOUND_MODELS[0]), forward_model(c, BOUND_MODELS[1])
 

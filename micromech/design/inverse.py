@@ -649,11 +649,17 @@ def _size_one(
 
 def _reached_sentence(what: str, sols: Mapping[str, FractionSolution],
                       frange: tuple[float, float] | None) -> str:
-    if frange is None:
-        return f"{what} is met under the models on the whole range"
-    a, b = frange
-    span = f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}"
-    return f"{what} is reached at {span} over the models"
+    span = "" if frange is None else (
+        f"Vf {frange[0]:.4g}" if frange[0] == frange[1] else f"Vf {frange[0]:.4g} to {frange[1]:.4g}")
+    first = next(iter(sols.values()))
+    if first.target.relation == "==":
+        return f"{what} is reached at {span} over the models"
+    lo, hi = first.lower, first.upper
+    both = intersect_all([_raw(s.intervals) for s in sols.values()], lo, hi)
+    held = ("holds under every model for " + ", ".join(
+        f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}" for a, b in both)
+        if both else "holds under no model at every fraction")
+    return f"{what} {held}" + (f" (the models cross it at {span})" if span else "")
 
 
 def size_models(

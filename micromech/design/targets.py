@@ -193,6 +193,8 @@ def format_value(name: str, value: float | None) -> str:
         return "-"
     lab, f = property_unit(name)
     text = f"{value / f:.4g}"
+    if lab.startswith("1e-"):  # the power of ten joins the number: "30e-6/K"
+        return text + lab[1:]
     return f"{text} {lab}" if lab else text
 
 

@@ -20,8 +20,9 @@ Sampling rules (documented behaviour):
 Samples are drawn and evaluated in chunks (``chunk_size``), with an optional progress callback
 ``progress(done, total)`` after each chunk. The mean and standard deviation are accumulated in
 float64 over chunks (sums about a shift, to avoid cancellation); percentiles and histograms are
-computed from the stored samples (float32 unless ``keep_samples``, which is ample for quantiles
-whose sampling error is far larger than 1e-7 relative).
+computed from the stored samples, float64 up to 2 million samples and float32 beyond (unless
+``keep_samples``), which halves the memory of long runs and is ample for quantiles whose sampling
+error is far larger than 1e-7 relative.
 
 References
 ----------
@@ -51,7 +52,7 @@ __all__ = [
     "Uncertain",
     "Statistics",
     "MonteCarloResult",
-    "monte_carlo",
+    "propagate",
     "DEFAULT_PERCENTILES",
 ]
 
@@ -76,7 +77,8 @@ class Uncertain:
     distribution : {"normal", "lognormal"}
         The distribution (see the module notes for the lognormal of a negative mean).
     lower, upper : float
-        Open physical range; samples outside it are rejected and redrawn.
+        Open physical range; samples outside it are rejected and redrawn. The mean may lie on
+        a range end (a fixed value at 0, say); samples must lie strictly inside.
 
     Raises
     ------
@@ -106,7 +108,7 @@ class Uncertain:
         if self.distribution not in ("normal", "lognormal"):
             raise InputError(f"uncertain input: distribution = {self.distribution!r} is not "
                              "'normal' or 'lognormal'")
-        if not self.lower < self.mean < self.upper:
+        if not self.lower <= self.mean <= self.upper:
             raise InputError(f"uncertain input: mean = {self.mean!r} lies outside its physical "
                              f"range ({self.lower!r}, {self.upper!r})")
 
@@ -150,8 +152,10 @@ class Uncertain:
         Returns
         -------
         ndarray of bool, shape (n,)
-            True inside ``(lower, upper)``.
+            True inside ``(lower, upper)`` (every finite sample of a fixed input).
         """
+        if self.std == 0.0:  # a fixed value is taken as given (it may sit on a range end)
+            return np.isfinite(x)
         return np.asarray((x > self.lower) & (x < self.upper) & np.isfinite(x))
 
     def as_dict(self) -> dict[str, Any]:
@@ -309,7 +313,7 @@ def _draw(
     )
 
 
-def monte_carlo(
+def propagate(
     func: Callable[[dict[str, Array]], Mapping[str, Any]],
     inputs: Mapping[str, Uncertain | float],
     n: int,
@@ -371,7 +375,7 @@ def monte_carlo(
 
     Examples
     --------
-    >>> r = monte_carlo(lambda s: {"y": 2.0 * s["x"]}, {"x": Uncertain(1.0, 0.1)}, 1000, seed=1)
+    >>> r = propagate(lambda s: {"y": 2.0 * s["x"]}, {"x": Uncertain(1.0, 0.1)}, 1000, seed=1)
     >>> abs(r["y"].mean - 2.0) < 0.05
     True
     """
@@ -385,7 +389,7 @@ def monte_carlo(
         raise InputError(f"bins = {bins}, chunk_size = {chunk_size}: both must be >= 1")
     specs = {k: _as_uncertain(k, u) for k, u in inputs.items()}
     rng = seed if isinstance(seed, np.random.Generator) else np.random.default_rng(seed)
-    store_dtype = np.float64 if keep_samples else np.float32
+    store_dtype = np.float64 if keep_samples or n <= 2_000_000 else np.float32
     store: dict[str, NDArray[Any]] = {}
     kept_in: dict[str, Array] = {k: np.empty(n) for k in specs} if keep_samples else {}
     sums: dict[str, list[float]] = {}  # name -> [shift, count, sum, sum of squares]
@@ -417,7 +421,7 @@ def monte_carlo(
             fin = a[np.isfinite(a)] - s[0]
             s[1] += fin.size
             s[2] += float(fin.sum())
-            s[3] += float(np.dot(fin, fin))
+            s[3] += float((fin * fin).sum())
         for k in kept_in:
             kept_in[k][done:done + m] = rows[k]
         done += m

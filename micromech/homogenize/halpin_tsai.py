@@ -78,7 +78,7 @@ def halpin_tsai_modulus(
     Examples
     --------
     >>> round(float(halpin_tsai_modulus(85e9, 3.4e9, 0.6, 2.0)) / 1e9, 3)
-    13.156
+    15.057
     """
     c = cm.fraction(vf)
     x = _check_xi(xi, "xi")

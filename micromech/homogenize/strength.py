@@ -274,7 +274,7 @@ def kink_band(tau_y: ArrayLike, G12: ArrayLike, misalignment: ArrayLike) -> Arra
     Examples
     --------
     >>> round(float(kink_band(60e6, 5e9, np.radians(2.0))) / 1e6, 1)
-    1277.4
+    1279.1
     """
     t = _pos(tau_y, "tau_y")
     phi = _pos(misalignment, "misalignment")

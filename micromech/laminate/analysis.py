@@ -225,7 +225,7 @@ def ply_material_from_case(case: Any) -> PlyMaterial:
     ------
     CaseFileError
         If the case has neither ``[ply]`` constants nor a composite to estimate them from, or
-        the chosen estimate is not available.
+        the chosen estimate does not apply to the composite.
     """
     label = str(getattr(case, "path", None) or getattr(case, "name", "case"))
     if getattr(case, "ply", None) is not None:
@@ -237,19 +237,15 @@ def ply_material_from_case(case: Any) -> PlyMaterial:
             "[matrix] and [composite] to estimate them"
         )
     model = getattr(case, "ply_model", "mori_tanaka") or "mori_tanaka"
-    try:
-        from micromech.homogenize import estimate  # type: ignore[attr-defined]
-    except ImportError:
-        raise CaseFileError(
-            f"{label}: ply constants from the {model!r} estimate are not available in this "
-            "installation; give a [ply] table"
-        ) from None
+    from micromech.homogenize import estimate
+
     result = estimate(composite)
     models = getattr(result, "models", result)
     if model not in models:
+        why = getattr(result, "notes", {}).get(model, "")
         raise CaseFileError(
-            f"{label}: [ply] model = {model!r} does not apply to this composite; available: "
-            f"{', '.join(sorted(models))}"
+            f"{label}: [ply] model = {model!r} does not apply to this composite"
+            f"{' (' + why + ')' if why else ''}; available: {', '.join(sorted(models))}"
         )
     return PlyMaterial.from_constants(
         models[model], strengths=getattr(case, "ply_strengths", None),

@@ -167,7 +167,7 @@ def strain_transformation(angle: ArrayLike) -> Array:
 
 
 def transformed_reduced_stiffness(Q: ArrayLike, angle: ArrayLike) -> Array:
-    """Transformed reduced stiffness Q-bar of a ply at an angle, in laminate axes.
+    """Compute the transformed reduced stiffness Q-bar of a ply at an angle, in laminate axes.
 
     Parameters
     ----------
@@ -288,8 +288,6 @@ def load_vector(loads: Mapping[str, Any] | ArrayLike | None) -> tuple[Array, flo
         ])
         dT = loads.get("delta_T", 0.0)
         dT = parse_quantity(dT, "temperature_change", "loads.delta_T") if dT is not None else 0.0
-        if not np.all(np.isfinite(vec)) or not np.isfinite(dT):
-            raise InputError("loads: resultants and delta_T must be finite")
         return vec, float(dT)
     vec = _f(loads)
     if vec.shape[-1:] != (6,):
@@ -574,7 +572,7 @@ class Laminate:
 
     @property
     def z_points(self) -> Array:
-        """z of the bottom, middle and top of each ply, m, shape (n, 3)."""
+        """Heights z of the bottom, middle and top of each ply, m, shape (n, 3)."""
         return self._arrays["zpts"]
 
     @property
@@ -677,7 +675,7 @@ class Laminate:
             inv = self.abd_inverse
             return inv[:3, :3] if block == "A" else inv[3:, 3:]
         if bending == "restrained":
-            return np.linalg.inv(self.A if block == "A" else self.D)
+            return np.asarray(np.linalg.inv(self.A if block == "A" else self.D), dtype=np.float64)
         raise InputError(f"bending: expected 'free' or 'restrained', got {bending!r}")
 
     def thermal_resultants(self, delta_T: float) -> Array:
@@ -725,7 +723,7 @@ class Laminate:
             Mid-plane strains (alpha_x, alpha_y, alpha_xy, 1/K) and curvatures (1/(m K)) of
             the unloaded laminate under a unit temperature change.
         """
-        return self.abd_inverse @ self.thermal_resultants(1.0)
+        return np.asarray(self.abd_inverse @ self.thermal_resultants(1.0), dtype=np.float64)
 
     # -- response --------------------------------------------------------------------------
     def _fields(self, rhs: Array, delta_T: float) -> PlyFields:

@@ -129,7 +129,7 @@ def _stresses(stress: ArrayLike, thermal: ArrayLike | None) -> tuple[Array, Arra
 
 def _linear_ratio(vT: Array, vM: Array, upper: Array, lower: Array) -> Array:
     """Smallest lambda >= 0 with vT + lambda vM outside [-lower, upper]."""
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         up = (upper - vT) / vM
         down = (-lower - vT) / vM
     lam = np.where(vM > 0, up, np.where(vM < 0, down, np.inf))
@@ -139,7 +139,7 @@ def _linear_ratio(vT: Array, vM: Array, upper: Array, lower: Array) -> Array:
 
 def _sign_interval(vT: Array, vM: Array, positive: bool) -> tuple[Array, Array]:
     """Interval [lo, hi] of lambda >= 0 where vT + lambda vM >= 0 (or < 0); empty if lo > hi."""
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         root = -vT / vM
     inf = np.full(np.shape(vT), np.inf)
     zero = np.zeros(np.shape(vT))
@@ -166,15 +166,19 @@ def _ray(H: Array, f: Array, sT: Array, sM: Array) -> tuple[Array, Array, Array]
 
 
 def _first_reach(a: Array, b: Array, c: Array, lo: Array, hi: Array) -> Array:
-    """Smallest lambda in [lo, hi] with a lambda^2 + b lambda + c >= 1 (a >= 0), else inf."""
-    empty = ~(lo <= hi)
+    """Smallest lambda in [lo, hi] with a lambda^2 + b lambda + c >= 1 (a >= 0), else inf.
+
+    Regions that start beyond 1e100 (a stress component that changes sign only at an
+    astronomically large load) count as never reached.
+    """
+    empty = ~(lo <= hi) | (lo > 1e100)
     lo_f = np.where(np.isfinite(lo), lo, 0.0)
     F_lo = a * lo_f**2 + b * lo_f + c
     d = 1.0 - F_lo
     bp = 2.0 * a * lo_f + b
     disc = np.sqrt(np.maximum(bp * bp + 4.0 * a * d, 0.0))
     den = bp + disc
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         mu = np.where(den > 0, 2.0 * d / den, np.inf)
     lam = np.where(d <= 0.0, lo_f, lo_f + mu)
     return np.where(empty | (lam > hi), np.inf, lam)

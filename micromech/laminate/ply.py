@@ -352,8 +352,11 @@ class PlyMaterial:
             if callable(ti):
                 src = ti()
         if getattr(src, "E1", None) is not None:
-            kw = {k: getattr(src, k, None) for k in (*_MODULI, *_RATIOS, *_ALPHAS)}
-            kw = {k: v for k, v in kw.items() if v is not None}
+            kw: dict[str, Any] = {}
+            for k in (*_MODULI, *_RATIOS, *_ALPHAS):
+                v = getattr(src, k, None)
+                if v is not None:
+                    kw[k] = v
             return cls(**kw, strengths=strengths, name=name, source=source)
         E, nu = getattr(src, "E", None), getattr(src, "nu", None)
         if E is None or nu is None:

@@ -58,7 +58,7 @@ def _stacked_strengths(laminate: Laminate) -> PlyStrengths:
     """Strengths of all plies as arrays of shape (n, 1) (to broadcast over the 3 points)."""
     values: dict[str, Any] = {}
     for name in STRENGTH_NAMES:
-        col = []
+        col: list[float] = []
         for i, p in enumerate(laminate.plies):
             s = p.material.strengths
             v = None if s is None else getattr(s, name)
@@ -239,7 +239,7 @@ def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float]:
     return vec, dT
 
 
-def _ply_minimum(res: CriterionResult) -> tuple[Array, Array, Array]:
+def _ply_minimum(res: CriterionResult) -> tuple[Array, NDArray[np.intp], NDArray[np.int64]]:
     """Per ply: smallest strength ratio over the three points, its point index and mode."""
     R = res.strength_ratio
     k = np.argmin(R, -1)
@@ -249,7 +249,8 @@ def _ply_minimum(res: CriterionResult) -> tuple[Array, Array, Array]:
 
 
 def _event(
-    laminate: Laminate, vec: Array, lam: float, idx: NDArray[np.intp], point: Array, mode: Array
+    laminate: Laminate, vec: Array, lam: float, idx: NDArray[Any], point: NDArray[Any],
+    mode: NDArray[Any],
 ) -> FailureEvent:
     from micromech.laminate.clt import POINTS
 

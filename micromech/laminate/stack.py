@@ -73,7 +73,7 @@ def plane_stress_reduce(C: ArrayLike) -> Array:
     Jones (1999), Sec. 2.5 (plane stress); Sun and Li (1988), Eq. (6).
     """
     Cpp, Cpq, Cqp, Cqq = _blocks(np.asarray(C, dtype=np.float64))
-    return Cpp - Cpq @ np.linalg.solve(Cqq, Cqp)
+    return np.asarray(Cpp - Cpq @ np.linalg.solve(Cqq, Cqp), dtype=np.float64)
 
 
 @dataclass(frozen=True, eq=False)
@@ -97,7 +97,7 @@ class StackResult:
     @property
     def compliance(self) -> Array:
         """Effective compliance, 1/Pa, shape (..., 6, 6)."""
-        return np.linalg.inv(self.stiffness)
+        return np.asarray(np.linalg.inv(self.stiffness), dtype=np.float64)
 
     def as_dict(self) -> dict[str, object]:
         """Return the JSON form: Ex, Ey, Ez, Gxy, Gxz, Gyz, nuxy, nuxz, nuyz (SI).

@@ -793,6 +793,10 @@ def _cross_checks(
             notes.append(text)
             for n in normal:
                 r = results[n]
-                if r.verdict != "consistent":  # right after the verdict: the likeliest cause
-                    reasons = (r.reasons[0], f"Across load cases: {text}", *r.reasons[1:])
+                if r.verdict != "consistent":  # first among the causes (after a unit slip)
+                    causes = [i for i, x in enumerate(r.reasons) if x.startswith("Likely cause")]
+                    at = len(r.reasons) if not causes else causes[0]
+                    if causes and "A unit slip" in r.reasons[at]:
+                        at += 1
+                    reasons = (*r.reasons[:at], f"Across load cases: {text}", *r.reasons[at:])
                     results[n] = replace(r, reasons=reasons)

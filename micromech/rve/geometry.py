@@ -22,7 +22,8 @@ The random limits were measured with :func:`random_cell` (10 seeds per case, gap
 0.1 d): with 20 to 560 fibres every run reached an exclusion fraction ``vf ((d+g)/d)^2`` of
 0.78, while 0.80 failed for some seeds and counts (13, 17, 19, 30 fibres); small square cells
 frustrate the packing (7 fibres fail from 0.74, 10 and 13 fibres at 0.76 to 0.78), and 6 to 19
-fibres all reached 0.72. Random close packing of equal discs is near 0.82 to 0.84 [4]_.
+fibres all reached 0.72. Random close packing of equal discs is near 0.82 to 0.84 [3]_. The
+numerics of the random cell are in :mod:`micromech.rve.packing`.
 
 References
 ----------
@@ -31,14 +32,12 @@ References
    pi/(2 sqrt 3) at contact (from memory).
 .. [2] Feder J (1980). Random sequential adsorption. J. Theor. Biol. 87:237-254; jamming
    coverage of discs about 0.547 (from memory).
-.. [3] Lubachevsky BD, Stillinger FH (1990). Geometric properties of random disk packings.
+.. [3] O'Hern CS, Silbert LE, Liu AJ, Nagel SR (2003). Jamming at zero temperature and zero
+   applied stress: the epitome of disorder. Phys. Rev. E 68:011306 (from memory).
+.. [4] Lubachevsky BD, Stillinger FH (1990). Geometric properties of random disk packings.
    J. Stat. Phys. 60:561-583 (from memory).
-.. [4] O'Hern CS, Silbert LE, Liu AJ, Nagel SR (2003). Jamming at zero temperature and zero
-   applied stress: the epitome of disorder. Phys. Rev. E 68:011306; minimisation of a
-   harmonic overlap energy of soft discs, jamming near 0.84 in two dimensions (from memory).
-.. [5] Metropolis N, Rosenbluth AW, Rosenbluth MN, Teller AH, Teller E (1953). Equation of state
-   calculations by fast computing machines. J. Chem. Phys. 21:1087-1092; Monte Carlo moves of
-   hard discs (from memory).
+.. [5] Metropolis N, Rosenbluth AW, Rosenbluth MN, Teller AH, Teller E (1953). J. Chem. Phys.
+   21:1087-1092; hard-disc Monte Carlo (from memory).
 .. [6] Trias D, Costa J, Turon A, Hurtado JE (2006). Determination of an appropriate
    representative volume element for probabilistic micromechanics of fibre-reinforced
    polymers. Acta Materialia 54(13):3471-3484; a cell side of at least 50 fibre radii
@@ -53,7 +52,6 @@ from __future__ import annotations
 import json
 import math
 import os
-import tempfile
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -63,6 +61,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import FractionError, InputError
+from micromech.rve import packing
+from micromech.rve.cellio import CAUTION, csv_text, plot_arrangement, write_atomic
 from micromech.units import parse_quantity
 
 __all__ = [
@@ -102,16 +102,9 @@ SMALL_CELL_FIBRES: int = 20
 #: Cell side in fibre radii for statistically representative fields (Trias et al. 2006,
 #: from memory).
 GUIDANCE_DELTA: float = 50.0
-#: The caution every written or printed output carries.
-CAUTION: str = (
-    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
-    "and a licensed engineer decide."
-)
 
 _METHODS = ("square", "hexagonal", "random")
 _MIN_SIDE = 2.5  # random cells: side >= 2.5 (d + gap), so each pair meets once across the faces
-_FEASIBLE = 1.0 + 1e-9  # internal units of (d + gap): accepted centre distance
-_TARGET = 1.0 + 1e-3  # internal units: relaxation aims a little beyond the gap
 
 
 # --- results ---------------------------------------------------------------------------------
@@ -347,7 +340,7 @@ class FibreArrangement:
             The path written.
         """
         text = json.dumps(self.as_dict(), indent=2, allow_nan=False) + "\n"
-        return _write_atomic(Path(path), text)
+        return write_atomic(Path(path), text)
 
     def to_csv(self, path: str | os.PathLike[str], *, unit: str = "um") -> Path:
         """Write the circles as CSV for a mesher, replacing an existing file atomically.
@@ -377,27 +370,7 @@ class FibreArrangement:
         Path
             The path written.
         """
-        factor = parse_quantity(f"1 {unit}", "length", "unit")
-        if not factor > 0.0:
-            raise InputError(f"unit: {unit!r} must be a positive length unit")
-        name = unit.strip().replace(" ", "")
-        centres, fibre, image = self.circles()
-        lx, ly = self.cell_size
-        lines = [
-            "# fibre centres of a periodic RVE cell; images of fibres cutting the faces flagged",
-            f"# method: {self.method}; seed: {self.seed}",
-            f"# cell: x from 0 to {lx / factor:.12g}, y from 0 to {ly / factor:.12g} {name}",
-            f"# fibre diameter: {self.diameter / factor:.12g} {name}; fibres: {self.n_fibres}; "
-            f"images: {int(image.sum())}",
-            f"# volume fraction: {self.volume_fraction:.10g}; "
-            f"required min gap: {self.min_gap / factor:.12g} {name}",
-            f"# {CAUTION}",
-            f"fibre,x_{name},y_{name},radius_{name},image",
-        ]
-        r = self.radius / factor
-        for c, f, m in zip(centres / factor, fibre, image, strict=True):
-            lines.append(f"{int(f)},{c[0]:.12g},{c[1]:.12g},{r:.12g},{int(m)}")
-        return _write_atomic(Path(path), "\n".join(lines) + "\n")
+        return write_atomic(Path(path), csv_text(self, unit))
 
 
 # --- limits and validation ------------------------------------------------------------------
@@ -652,8 +625,8 @@ def random_cell(
        0.40, well below the jamming coverage 0.547), so the start is random and loose.
     2. Growth to full size by minimising the overlap energy ``sum max(0, D' - r_ij)^2 / 2`` with
        ``D' = 1.001 D`` (L-BFGS-B, neighbour pairs from a periodic k-d tree), as in soft-disc
-       jamming studies [4]_; where it stalls the centres are jittered and the minimisation
-       resumes. This plays the part of Lubachevsky-Stillinger growth [3]_ and reaches
+       jamming studies [3]_; where it stalls the centres are jittered and the minimisation
+       resumes. This plays the part of Lubachevsky-Stillinger growth [4]_ and reaches
        exclusion fractions well above the adsorption jamming limit.
     3. Shaking: ``shake_sweeps`` sweeps of hard-disc Monte Carlo moves [5]_ (each fibre proposes
        a Gaussian step; a move is kept where it clears every other fibre's old and new place,
@@ -733,17 +706,17 @@ def random_cell(
         )
     rng = np.random.default_rng(seed)
     box = np.array([lx, ly]) / big_d
-    p = _adsorb(n, box, min(1.0, math.sqrt(0.40 * box[0] * box[1] / (n * math.pi / 4.0))), rng,
-                progress)
-    p, used = _relax(p, box, rng, iters, progress)
-    if not _feasible(p, box):
+    loose = min(1.0, math.sqrt(0.40 * box[0] * box[1] / (n * math.pi / 4.0)))
+    p = packing.adsorb(n, box, loose, rng, progress)
+    p, used = packing.relax(p, box, rng, iters, progress)
+    if not packing.is_feasible(p, box):
         raise FractionError(
             f"volume_fraction = {achieved:.4f}: random_cell did not clear all gaps of "
             f"{g / d:.3g} d within max_iterations = {iters} (practical limit "
             f"{float(packing_limit('random', d, g, n)):.4f}); raise max_iterations, try another "
             "seed or lower the fraction"
         )
-    p, acceptance = _shake(p, box, rng, sweeps, progress)
+    p, acceptance = packing.shake(p, box, rng, sweeps, progress)
     details = {"iterations": used, "shake_sweeps": sweeps, "shake_acceptance": acceptance}
     return _arrangement(p * big_d, d, (lx, ly), v, g, seed, "random", details)
 
@@ -768,120 +741,6 @@ def _random_size(
         n = _count(n_fibres, "n_fibres")
     side = math.sqrt(n * area / v)
     return n, side, side
-
-
-def _wrap(p: Array, box: Array) -> Array:
-    q = np.mod(p, box)
-    return np.where(q >= box, 0.0, q)
-
-
-def _min_image(v: Array, box: Array) -> Array:
-    return v - box * np.round(v / box)
-
-
-def _adsorb(n: int, box: Array, diam: float, rng: np.random.Generator,
-            progress: Progress | None) -> Array:
-    """Random sequential adsorption of ``n`` discs of diameter ``diam`` (batches of 64)."""
-    p = np.empty((n, 2))
-    for k in range(n):
-        best, best_r = None, -1.0
-        for _ in range(200):
-            cand = rng.random((64, 2)) * box
-            if k == 0:
-                best = cand[0]
-                break
-            v = _min_image(cand[:, None, :] - p[None, :k, :], box)
-            r = np.sqrt(np.min(np.einsum("abk,abk->ab", v, v), axis=1))
-            i = int(np.argmax(r >= diam)) if np.any(r >= diam) else int(np.argmax(r))
-            if r[i] > best_r:
-                best, best_r = cand[i], float(r[i])
-            if best_r >= diam:
-                break
-        p[k] = best
-        if progress is not None:
-            progress("adsorption", k + 1, n)
-    return p
-
-
-def _overlap_energy(flat: Array, box: Array, target: float) -> tuple[float, Array]:
-    from scipy.spatial import cKDTree
-
-    p = _wrap(flat.reshape(-1, 2), box)
-    pairs = cKDTree(p, boxsize=box).query_pairs(target, output_type="ndarray")
-    if pairs.size == 0:
-        return 0.0, np.zeros_like(flat)
-    i, j = pairs[:, 0], pairs[:, 1]
-    v = _min_image(p[i] - p[j], box)
-    r = np.hypot(v[:, 0], v[:, 1])
-    over = np.maximum(target - r, 0.0)
-    w = over / np.maximum(r, 1e-300)
-    n = p.shape[0]
-    grad = np.empty_like(p)
-    for k in range(2):
-        f = w * v[:, k]
-        grad[:, k] = np.bincount(j, f, minlength=n) - np.bincount(i, f, minlength=n)
-    return float(0.5 * np.dot(over, over)), grad.ravel()
-
-
-def _feasible(p: Array, box: Array) -> bool:
-    from scipy.spatial import cKDTree
-
-    pairs = cKDTree(p, boxsize=box).query_pairs(_FEASIBLE, output_type="ndarray")
-    if pairs.size == 0:
-        return True
-    v = _min_image(p[pairs[:, 0]] - p[pairs[:, 1]], box)
-    return bool(np.all(np.hypot(v[:, 0], v[:, 1]) >= _FEASIBLE))
-
-
-def _relax(p: Array, box: Array, rng: np.random.Generator, budget: int,
-           progress: Progress | None) -> tuple[Array, int]:
-    """Minimise the overlap energy; jitter and resume where it stalls, within the budget."""
-    from scipy.optimize import minimize
-
-    used = 0
-    while True:
-        res = minimize(
-            _overlap_energy, p.ravel(), args=(box, _TARGET), jac=True, method="L-BFGS-B",
-            options={"maxiter": budget - used, "maxfun": 4 * (budget - used) + 10, "ftol": 0.0,
-                     "gtol": 1e-12, "maxcor": 20},
-        )
-        used += max(int(res.nit), 1)
-        p = _wrap(res.x.reshape(-1, 2), box)
-        if progress is not None:
-            progress("relaxation", min(used, budget), budget)
-        if used >= budget or _feasible(p, box):
-            return p, used
-        p = _wrap(p + rng.normal(scale=0.02, size=p.shape), box)
-
-
-def _shake(p: Array, box: Array, rng: np.random.Generator, sweeps: int,
-           progress: Progress | None) -> tuple[Array, float]:
-    """Hard-disc Monte Carlo sweeps that keep every centre distance >= the exclusion diameter."""
-    from scipy.spatial import cKDTree
-
-    n = p.shape[0]
-    step, accepted = 0.05, 0.0
-    for s in range(sweeps):
-        new = _wrap(p + rng.normal(scale=step, size=p.shape), box)
-        both = np.vstack([p, new])
-        pairs = cKDTree(both, boxsize=box).query_pairs(_FEASIBLE, output_type="ndarray")
-        a, b = pairs[:, 0], pairs[:, 1]
-        va = _min_image(both[a] - both[b], box)
-        close = np.hypot(va[:, 0], va[:, 1]) < _FEASIBLE
-        a, b = a[close], b[close]
-        distinct = (a % n) != (b % n)
-        a, b = a[distinct], b[distinct]
-        blocked = np.zeros(n, dtype=bool)
-        blocked[a[a >= n] - n] = True
-        blocked[b[b >= n] - n] = True
-        ok = ~blocked
-        p = np.where(ok[:, None], new, p)
-        rate = float(ok.mean())
-        accepted += rate
-        step = float(np.clip(step * (1.1 if rate > 0.4 else 0.9), 1e-6, 0.5))
-        if progress is not None:
-            progress("shaking", s + 1, sweeps)
-    return p, accepted / sweeps if sweeps else 0.0
 
 
 # --- statistics and guidance ----------------------------------------------------------------
@@ -919,7 +778,7 @@ def nearest_neighbour_stats(
     if box.shape != (2,) or not np.all(box > 0.0):
         raise InputError(f"cell_size = {cell_size!r} must be two positive lengths")
     d = _length(diameter, "diameter", allow_zero=False)
-    c = _wrap(c, box)
+    c = packing.wrap(c, box)
     own = float(box.min())
     if c.shape[0] == 1:
         nn = np.array([own])
@@ -986,91 +845,3 @@ def rve_size_guidance(arrangement: FibreArrangement) -> RveGuidance:
         msg = (f"L/R = {delta:.3g} < {GUIDANCE_DELTA:g} (Trias 2006): use about {n50} fibres, "
                "or average several seeds for mean properties (Kanit 2003)")
     return RveGuidance(delta, GUIDANCE_DELTA, verdict, n50, msg, refs)
-
-
-# --- output ---------------------------------------------------------------------------------
-
-
-def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]) -> Path:
-    """Draw the cell, its fibres and their images to an image file (matplotlib, Agg).
-
-    Parameters
-    ----------
-    arrangement : FibreArrangement
-        The cell to draw.
-    path : str or path-like
-        Output image (format from the suffix, e.g. ``.png``); replaced atomically.
-
-    Returns
-    -------
-    Path
-        The path written.
-    """
-    import matplotlib
-
-    matplotlib.use("Agg")
-    import matplotlib.pyplot as plt
-    from matplotlib.patches import Circle, Rectangle
-
-    um = 1e6
-    lx, ly = arrangement.cell_size
-    centres, _, image = arrangement.circles()
-    fig, ax = plt.subplots(figsize=(6.0, 6.0 * min(2.0, max(0.5, ly / lx))))
-    try:
-        for c, m in zip(centres * um, image, strict=True):
-            ax.add_patch(Circle((c[0], c[1]), arrangement.radius * um,
-                                facecolor="0.85" if m else "tab:blue",
-                                edgecolor="0.4" if m else "navy",
-                                linestyle="--" if m else "-", linewidth=0.6))
-        ax.add_patch(Rectangle((0, 0), lx * um, ly * um, fill=False, edgecolor="k", linewidth=1.2))
-        pad = arrangement.diameter * um
-        ax.set_xlim(-pad, lx * um + pad)
-        ax.set_ylim(-pad, ly * um + pad)
-        ax.set_aspect("equal")
-        ax.set_xlabel("x [um]")
-        ax.set_ylabel("y [um]")
-        ax.set_title(f"{arrangement.method} cell: {arrangement.n_fibres} fibres, "
-                     f"Vf = {arrangement.volume_fraction:.4f} (images dashed)", fontsize=9)
-        fig.text(0.5, 0.005, CAUTION, ha="center", va="bottom", fontsize=5.5, wrap=True)
-        out = Path(path)
-        suffix = out.suffix or ".png"
-        fd, tmp = tempfile.mkstemp(dir=out.parent or Path("."), prefix=f".{out.name}.",
-                                   suffix=suffix)
-        os.close(fd)
-        try:
-            fig.savefig(tmp, dpi=150, bbox_inches="tight")
-            os.chmod(tmp, _file_mode(out))
-            os.replace(tmp, out)
-        except BaseException:
-            Path(tmp).unlink(missing_ok=True)
-            raise
-    finally:
-        plt.close(fig)
-    return out
-
-
-def _write_atomic(path: Path, text: str) -> Path:
-    """Write text to a temporary file beside ``path`` and rename it over ``path``."""
-    fd, tmp = tempfile.mkstemp(dir=path.parent or Path("."), prefix=f".{path.name}.",
-                               suffix=".tmp")
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.chmod(tmp, _file_mode(path))
-        os.replace(tmp, path)
-    except BaseException:
-        Path(tmp).unlink(missing_ok=True)
-        raise
-    return path
-
-
-def _file_mode(path: Path) -> int:
-    """Permissions for a new output: those of the file it replaces, else 0o666 less the umask."""
-    try:
-        return path.stat().st_mode & 0o777
-    except FileNotFoundError:
-        mask = os.umask(0o022)
-        os.umask(mask)
-        return 0o666 & ~mask

@@ -53,6 +53,7 @@ def test_units_and_kinds():
     assert property_unit("nu12/density") == ("1/(g/cm^3)", 1e-3)
     assert format_value("E2", 9.2e9) == "9.2 GPa"
     assert format_value("nu12", 0.3) == "0.3"
+    assert format_value("alpha2", 30e-6) == "30e-6/K"
     assert format_value("E2", None) == "-"
     assert parse_property_value(3, "E1/density") == 3.0
 

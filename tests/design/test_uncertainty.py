@@ -5,7 +5,7 @@ import math
 import numpy as np
 import pytest
 
-from micromech.design.uncertainty import Uncertain, monte_carlo
+from micromech.design.uncertainty import Uncertain, propagate
 from micromech.errors import InputError
 
 # rule of mixtures E1 = Ef Vf + Em (1 - Vf) (Jones 1999, 2nd ed., Eq. 3.6) with independent
@@ -22,7 +22,7 @@ def rom(s):
 
 def test_mean_and_variance_converge_to_the_closed_form():
     n = 200_000
-    r = monte_carlo(rom, {"Ef": Uncertain(MEF, 0.05), "Em": Uncertain(MEM, 0.05),
+    r = propagate(rom, {"Ef": Uncertain(MEF, 0.05), "Em": Uncertain(MEM, 0.05),
                           "Vf": Uncertain(MVF, 0.02)}, n, seed=12345, keep_samples=True)
     mean = MEF * MVF + MEM * (1 - MVF)
     var = (MVF**2 * SEF**2 + (1 - MVF) ** 2 * SEM**2 + (MEF - MEM) ** 2 * SVF**2
@@ -40,7 +40,7 @@ def test_mean_and_variance_converge_to_the_closed_form():
 def test_percentiles_of_a_normal_output_converge_to_the_normal_quantiles():
     # with Vf fixed, E1 is an exact linear combination of normals: normal with the moments above
     n = 200_000
-    r = monte_carlo(rom, {"Ef": Uncertain(MEF, 0.05), "Em": Uncertain(MEM, 0.05), "Vf": MVF},
+    r = propagate(rom, {"Ef": Uncertain(MEF, 0.05), "Em": Uncertain(MEM, 0.05), "Vf": MVF},
                     n, seed=7, percentiles=(5, 50, 95))
     mean = MEF * MVF + MEM * (1 - MVF)
     sd = math.sqrt(MVF**2 * SEF**2 + (1 - MVF) ** 2 * SEM**2)
@@ -57,7 +57,7 @@ def test_percentiles_of_a_normal_output_converge_to_the_normal_quantiles():
 
 def test_lognormal_input_keeps_its_mean_and_cov_and_the_sign_of_a_negative_mean():
     n = 100_000
-    r = monte_carlo(lambda s: {"a": s["a"], "b": s["b"]},
+    r = propagate(lambda s: {"a": s["a"], "b": s["b"]},
                     {"a": Uncertain(2.0, 0.3, "lognormal"), "b": Uncertain(-5e-7, 0.1, "lognormal")},
                     n, seed=3)
     # lognormal moments (Johnson, Kotz and Balakrishnan 1994, Ch. 14): mean 2, std 0.6
@@ -68,7 +68,7 @@ def test_lognormal_input_keeps_its_mean_and_cov_and_the_sign_of_a_negative_mean(
 
 
 def test_samples_outside_the_physical_range_are_redrawn_not_clipped():
-    r = monte_carlo(lambda s: {"E": s["E"]}, {"E": Uncertain(1.0, 1.0, lower=0.0)}, 20_000,
+    r = propagate(lambda s: {"E": s["E"]}, {"E": Uncertain(1.0, 1.0, lower=0.0)}, 20_000,
                     seed=5, keep_samples=True)
     assert r.rejected > 0  # about 16 % of a normal with CoV 1 is negative
     assert r.samples["E"].min() > 0.0
@@ -76,7 +76,7 @@ def test_samples_outside_the_physical_range_are_redrawn_not_clipped():
 
 
 def test_joint_check_redraws_whole_rows():
-    r = monte_carlo(lambda s: {"d": s["x"] - s["y"]},
+    r = propagate(lambda s: {"d": s["x"] - s["y"]},
                     {"x": Uncertain(1.0, 0.5), "y": Uncertain(0.9, 0.5)}, 5000, seed=9,
                     valid=lambda s: s["x"] > s["y"])
     assert r["d"].percentiles[5.0] > 0.0 and r.rejected > 0
@@ -85,9 +85,9 @@ def test_joint_check_redraws_whole_rows():
 def test_same_seed_gives_the_same_result_and_chunks_report_progress():
     seen = []
     spec = {"Ef": Uncertain(MEF, 0.05), "Em": Uncertain(MEM, 0.05), "Vf": Uncertain(MVF, 0.02)}
-    a = monte_carlo(rom, spec, 2500, seed=11, chunk_size=1000,
+    a = propagate(rom, spec, 2500, seed=11, chunk_size=1000,
                     progress=lambda d, t: seen.append((d, t)))
-    b = monte_carlo(rom, spec, 2500, seed=11, chunk_size=1000)
+    b = propagate(rom, spec, 2500, seed=11, chunk_size=1000)
     assert seen == [(1000, 2500), (2000, 2500), (2500, 2500)]
     assert a["E1"].mean == b["E1"].mean and a["E1"].percentiles == b["E1"].percentiles
     assert a.seed == 11
@@ -96,7 +96,7 @@ def test_same_seed_gives_the_same_result_and_chunks_report_progress():
 def test_histogram_counts_every_finite_sample_and_result_serialises():
     import json
 
-    r = monte_carlo(rom, {"Ef": Uncertain(MEF, 0.05), "Em": MEM, "Vf": MVF}, 1000, seed=1,
+    r = propagate(rom, {"Ef": Uncertain(MEF, 0.05), "Em": MEM, "Vf": MVF}, 1000, seed=1,
                     bins=12)
     s = r["E1"]
     assert s.counts.sum() == 1000 and s.edges.shape == (13,)
@@ -108,50 +108,50 @@ def test_histogram_counts_every_finite_sample_and_result_serialises():
 
 
 def test_constant_output_has_zero_spread():
-    r = monte_carlo(lambda s: {"c": 3.0, "skip": None}, {"x": Uncertain(1.0, 0.1)}, 10, seed=0)
+    r = propagate(lambda s: {"c": 3.0, "skip": None}, {"x": Uncertain(1.0, 0.1)}, 10, seed=0)
     assert r["c"].std == 0.0 and r["c"].percentiles[50.0] == 3.0
     assert "skip" not in r.outputs
 
 
 def test_too_few_samples_is_an_error():
     with pytest.raises(InputError, match="samples: n = 1; need at least 2"):
-        monte_carlo(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 1)
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 1)
 
 
 def test_percentile_out_of_range_is_an_error():
     with pytest.raises(InputError, match=r"percentiles: \[5.0, 150.0\] must each lie in"):
-        monte_carlo(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, percentiles=(5, 150))
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, percentiles=(5, 150))
 
 
 def test_bad_bins_is_an_error():
     with pytest.raises(InputError, match="bins = 0, chunk_size = 10: both must be >= 1"):
-        monte_carlo(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, bins=0, chunk_size=10)
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, bins=0, chunk_size=10)
 
 
 def test_rows_that_never_pass_are_an_error():
     with pytest.raises(InputError, match="still fail the physical range after 3 redraws"):
-        monte_carlo(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, valid=lambda s: s["Ef"] < 0,
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, valid=lambda s: s["Ef"] < 0,
                     max_rounds=3)
 
 
 def test_function_must_return_a_mapping_of_row_arrays():
     with pytest.raises(InputError, match="returned list; expected a mapping"):
-        monte_carlo(lambda s: [1.0], {"x": 1.0}, 10)
+        propagate(lambda s: [1.0], {"x": 1.0}, 10)
     with pytest.raises(InputError, match=r"output 'y' has shape \(3,\) for 10 sample rows"):
-        monte_carlo(lambda s: {"y": np.zeros(3)}, {"x": 1.0}, 10)
+        propagate(lambda s: {"y": np.zeros(3)}, {"x": 1.0}, 10)
     with pytest.raises(InputError, match="returned no outputs"):
-        monte_carlo(lambda s: {}, {"x": 1.0}, 10)
+        propagate(lambda s: {}, {"x": 1.0}, 10)
 
 
 def test_unknown_output_is_an_error():
-    r = monte_carlo(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10)
+    r = propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10)
     with pytest.raises(InputError, match="no output 'E2'; outputs are E1"):
         r["E2"]
 
 
 def test_input_that_is_not_a_number_is_an_error():
     with pytest.raises(InputError, match="input 'x': expected an Uncertain or a number, got str"):
-        monte_carlo(rom, {"x": "abc"}, 10)
+        propagate(rom, {"x": "abc"}, 10)
 
 
 @pytest.mark.parametrize(

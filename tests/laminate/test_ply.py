@@ -102,7 +102,8 @@ def test_object_without_constants_is_refused():
         ({"E2": -1e9}, InvalidMaterialError, r"E2 = -1e\+09 Pa must be positive"),
         ({"nu12": 5.0}, InvalidMaterialError, r"nu12 = 5 must satisfy \|nu12\| < sqrt"),
         ({"G12": float("nan")}, InvalidMaterialError, "G12 = nan: must be finite"),
-        ({"nu23": 0.999, "E3": 100e9, "G23": 3e9}, InvalidMaterialError, "3D stiffness.*positive definite"),
+        ({"nu23": 0.999, "E3": 100e9, "G23": 3e9}, InvalidMaterialError,
+         "3D stiffness.*positive definite"),
         ({"E1": "181 MPa/m"}, UnitError, "E1"),
     ],
 )

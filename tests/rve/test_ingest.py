@@ -423,3 +423,35 @@ def test_values_that_overflow_in_si_name_the_line(tmp_path):
     t = read_table(write(tmp_path, "e,s\n0,0\n1,1e300\n2,1\n", name="s.csv"))
     with pytest.raises(DataFileError, match=r"line 3: stress overflows"):
         curve_from_columns(t, "x", stress=("s", "GPa"), strain=("e", "1"))
+
+
+_number = st.floats(-1e6, 1e6, allow_nan=False).map(lambda v: f"{v:.6g}")
+_extra = st.sampled_from(["", "   ", "# note", "% note", "  # indented note", "\t"])
+
+
+@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(
+    rows=st.lists(st.lists(_number, min_size=2, max_size=2), min_size=0, max_size=8),
+    delim=st.sampled_from([",", ";", "\t", " ", "  "]),
+    header=st.booleans(),
+    extras=st.lists(st.tuples(st.integers(0, 10), _extra), max_size=4),
+    crlf=st.booleans(),
+)
+def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, extras, crlf):
+    lines = [delim.join(r) for r in rows]
+    if header:
+        lines.insert(0, delim.join(["disp", "force"]))
+    for pos, text in extras:
+        lines.insert(min(pos, len(lines)), text)
+    body = ("\r\n" if crlf else "\n").join(lines)
+    fast, slow = tmp_path / "fast.csv", tmp_path / "slow.csv"
+    fast.write_bytes(("# plain\n" + body).encode())
+    slow.write_bytes(("# \u00b5 forces the line reader\n" + body).encode())
+    outcomes = []
+    for p in (fast, slow):
+        try:
+            t = read_table(p)
+            outcomes.append((t.header, t.data.tolist(), t.lines.tolist(), t.delimiter))
+        except DataFileError as exc:
+            outcomes.append(type(exc))
+    assert outcomes[0] == outcomes[1]

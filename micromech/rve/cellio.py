@@ -1,0 +1,187 @@
+"""Writing fibre cells: CSV text for meshers, atomic file replacement and a drawing of the cell.
+
+Used by :class:`micromech.rve.geometry.FibreArrangement`; every file carries :data:`CAUTION`.
+"""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from pathlib import Path
+from typing import TYPE_CHECKING
+
+from micromech.errors import InputError
+from micromech.units import parse_quantity
+
+if TYPE_CHECKING:  # pragma: no cover
+    from micromech.rve.geometry import FibreArrangement
+
+__all__ = ["CAUTION", "csv_text", "write_atomic", "file_mode", "plot_arrangement"]
+
+#: The caution every written or printed output carries.
+CAUTION: str = (
+    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
+    "and a licensed engineer decide."
+)
+
+
+def csv_text(arrangement: FibreArrangement, unit: str = "um") -> str:
+    """CSV text of the circles of a cell: the fibres, then the images that cut the faces.
+
+    Lines starting with ``#`` describe the cell (method, seed, cell size, fraction, caution).
+    Then one header line and one row per circle. Columns:
+
+    ``fibre``
+        Fibre index, 0-based; an image row repeats the index of the fibre it copies.
+    ``x_<unit>``, ``y_<unit>``
+        Centre; the cell is ``[0, Lx] x [0, Ly]``, so image centres lie outside it.
+    ``radius_<unit>``
+        Fibre radius.
+    ``image``
+        0 for a fibre, 1 for a periodic image.
+
+    Parameters
+    ----------
+    arrangement : FibreArrangement
+        The cell.
+    unit : str
+        Length unit of the coordinates (``"um"``, ``"mm"``, ``"m"``, ...).
+
+    Returns
+    -------
+    str
+        The file contents.
+    """
+    factor = parse_quantity(f"1 {unit}", "length", "unit")
+    if not factor > 0.0:
+        raise InputError(f"unit: {unit!r} must be a positive length unit")
+    name = unit.strip().replace(" ", "")
+    a = arrangement
+    centres, fibre, image = a.circles()
+    lx, ly = a.cell_size
+    lines = [
+        "# fibre centres of a periodic RVE cell; images of fibres cutting the faces flagged",
+        f"# method: {a.method}; seed: {a.seed}",
+        f"# cell: x from 0 to {lx / factor:.12g}, y from 0 to {ly / factor:.12g} {name}",
+        f"# fibre diameter: {a.diameter / factor:.12g} {name}; fibres: {a.n_fibres}; "
+        f"images: {int(image.sum())}",
+        f"# volume fraction: {a.volume_fraction:.10g}; "
+        f"required min gap: {a.min_gap / factor:.12g} {name}",
+        f"# {CAUTION}",
+        f"fibre,x_{name},y_{name},radius_{name},image",
+    ]
+    r = a.radius / factor
+    for c, f, m in zip(centres / factor, fibre, image, strict=True):
+        lines.append(f"{int(f)},{c[0]:.12g},{c[1]:.12g},{r:.12g},{int(m)}")
+    return "\n".join(lines) + "\n"
+
+
+def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]) -> Path:
+    """Draw the cell, its fibres and their images to an image file (matplotlib, Agg).
+
+    Parameters
+    ----------
+    arrangement : FibreArrangement
+        The cell to draw.
+    path : str or path-like
+        Output image (format from the suffix, e.g. ``.png``); replaced atomically.
+
+    Returns
+    -------
+    Path
+        The path written.
+    """
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+    from matplotlib.patches import Circle, Rectangle
+
+    um = 1e6
+    lx, ly = arrangement.cell_size
+    centres, _, image = arrangement.circles()
+    fig, ax = plt.subplots(figsize=(6.0, 6.0 * min(2.0, max(0.5, ly / lx))))
+    try:
+        for c, m in zip(centres * um, image, strict=True):
+            ax.add_patch(Circle((c[0], c[1]), arrangement.radius * um,
+                                facecolor="0.85" if m else "tab:blue",
+                                edgecolor="0.4" if m else "navy",
+                                linestyle="--" if m else "-", linewidth=0.6))
+        ax.add_patch(Rectangle((0, 0), lx * um, ly * um, fill=False, edgecolor="k", linewidth=1.2))
+        pad = arrangement.diameter * um
+        ax.set_xlim(-pad, lx * um + pad)
+        ax.set_ylim(-pad, ly * um + pad)
+        ax.set_aspect("equal")
+        ax.set_xlabel("x [um]")
+        ax.set_ylabel("y [um]")
+        ax.set_title(f"{arrangement.method} cell: {arrangement.n_fibres} fibres, "
+                     f"Vf = {arrangement.volume_fraction:.4f} (images dashed)", fontsize=9)
+        fig.text(0.5, 0.005, CAUTION, ha="center", va="bottom", fontsize=5.5, wrap=True)
+        out = Path(path)
+        suffix = out.suffix or ".png"
+        fd, tmp = tempfile.mkstemp(dir=out.parent or Path("."), prefix=f".{out.name}.",
+                                   suffix=suffix)
+        os.close(fd)
+        try:
+            fig.savefig(tmp, dpi=150, bbox_inches="tight")
+            os.chmod(tmp, file_mode(out))
+            os.replace(tmp, out)
+        except BaseException:
+            Path(tmp).unlink(missing_ok=True)
+            raise
+    finally:
+        plt.close(fig)
+    return out
+
+
+def write_atomic(path: Path, text: str) -> Path:
+    """Write text to a temporary file beside ``path`` and rename it over ``path``.
+
+    A reader never sees a half-written file, and a failed write leaves the old file untouched.
+
+    Parameters
+    ----------
+    path : Path
+        Output file.
+    text : str
+        Contents (UTF-8).
+
+    Returns
+    -------
+    Path
+        ``path``.
+    """
+    fd, tmp = tempfile.mkstemp(dir=path.parent or Path("."), prefix=f".{path.name}.",
+                               suffix=".tmp")
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
+            fh.write(text)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.chmod(tmp, file_mode(path))
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+    return path
+
+
+def file_mode(path: Path) -> int:
+    """Permissions for an output: those of the file it replaces, else 0o666 less the umask.
+
+    Parameters
+    ----------
+    path : Path
+        Output file.
+
+    Returns
+    -------
+    int
+        Permission bits for :func:`os.chmod`.
+    """
+    try:
+        return path.stat().st_mode & 0o777
+    except FileNotFoundError:
+        mask = os.umask(0o022)
+        os.umask(mask)
+        return 0o666 & ~mask

@@ -1,0 +1,127 @@
+"""The laminate report (table and JSON) and the ``micromech laminate`` command."""
+
+from __future__ import annotations
+
+import json
+
+import numpy as np
+import pytest
+from click.testing import CliRunner
+
+from micromech.cli import cli
+from micromech.laminate import Laminate, analyse_laminate
+from micromech.report.laminate import CAUTION, laminate_json, laminate_table
+
+CASE = """
+name = "invented example: carbon/epoxy quasi-isotropic panel"
+
+[ply]
+E1 = "181 GPa"
+E2 = "10.3 GPa"
+nu12 = 0.28
+G12 = "7.17 GPa"
+nu23 = 0.4
+alpha1 = "0.02e-6 1/K"
+alpha2 = "22.5e-6 1/K"
+Xt = "1500 MPa"
+Xc = "1500 MPa"
+Yt = "40 MPa"
+Yc = "246 MPa"
+S12 = "68 MPa"
+
+[laminate]
+layup = "{layup}"
+ply_thickness = "0.125 mm"
+{loads}
+"""
+
+
+@pytest.fixture
+def case_file(tmp_path):
+    def write(layup="[0/+-45/90]s", loads='loads = { Nx = "100 N/mm", delta_T = "-100 K" }'):
+        p = tmp_path / "case.toml"
+        p.write_text(CASE.format(layup=layup, loads=loads), encoding="utf-8")
+        return p
+    return write
+
+
+def test_json_follows_the_design_contract(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    a = analyse_laminate(lam, {"Nx": 1e5, "Mx": 1.0})
+    d = laminate_json(a, case="c")
+    json.dumps(d, allow_nan=False)
+    for key in ("A", "B", "D", "in_plane", "stack_3d", "plies", "first_ply_failure", "caution"):
+        assert key in d
+    np.testing.assert_allclose(d["A"], lam.A)  # N/m
+    np.testing.assert_allclose(d["D"], lam.D)  # N*m
+    assert d["B"] == [[0.0] * 3] * 3  # symmetric laminate, round-off written as 0
+    assert set(d["in_plane"]) >= {"Ex", "Ey", "Gxy", "nuxy"}
+    assert set(d["stack_3d"]) == {"Ex", "Ey", "Ez", "Gxy", "Gxz", "Gyz", "nuxy", "nuxz", "nuyz"}
+    p = d["plies"][1]
+    assert p["angle"] == 90.0 and p["z_bottom"] == pytest.approx(-0.125e-3)
+    assert set(p["stress_material"]) == {"s11", "s22", "s12"}
+    assert set(p["criteria"]) >= {"max_stress", "tsai_hill", "tsai_wu", "hashin"}
+    assert set(p["criteria"]["tsai_wu"]) >= {"index", "strength_ratio", "mode"}
+    assert d["first_ply_failure"]["plies"] in ([1], [2], [1, 2])
+    assert d["caution"] == CAUTION
+
+
+def test_json_without_loads_has_no_stresses(graphite_epoxy_2d):
+    d = laminate_json(analyse_laminate(Laminate.from_code("[0/90]", graphite_epoxy_2d, 1e-3)))
+    assert d["plies"][0]["stress_material"] is None and d["plies"][0]["criteria"] is None
+    assert d["stack_3d"] is None and d["first_ply_failure"] is None
+    assert d["B"][0][0] != 0.0  # unsymmetric: coupling is real
+    json.dumps(d, allow_nan=False)
+
+
+def test_table_shows_units_marks_the_critical_ply_and_carries_the_caution(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    text = laminate_table(analyse_laminate(lam, {"Nx": 1e5}), case="c")
+    for piece in ("A (N/mm)", "B (N)", "D (N*mm)", "Ex (GPa)", "(MPa)", "First-ply failure",
+                  "last-ply failure", CAUTION):
+        assert piece in text
+    marked = [ln for ln in text.splitlines() if ln.rstrip().endswith("<<")]
+    assert len(marked) == 2 and all(" 90 " in ln for ln in marked)
+    assert "\x1b[" not in text  # no terminal colour codes
+
+
+def test_command_prints_the_report(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file())])
+    assert result.exit_code == 0, result.output
+    assert "A (N/mm)" in result.output and "<<" in result.output
+    assert "invented example" in result.output
+
+
+def test_command_json_and_envelope_plot(case_file, tmp_path):
+    png = tmp_path / "env.png"
+    result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--json", "--envelope",
+                                      "Nx,Ny", "--plot", str(png), "--points", "37"])
+    assert result.exit_code == 0, result.output
+    d = json.loads(result.output)
+    assert d["criterion"] == "tsai_wu" and len(d["envelopes"]) == 5
+    assert d["loads"]["delta_T"] == -100.0 and d["loads"]["Nx"] == pytest.approx(1e5)
+    assert png.read_bytes()[:4] == b"\x89PNG"
+
+
+def test_command_text_envelope_intercepts(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--envelope", "sx,sy",
+                                      "--criterion", "max_stress", "--points", "41"])
+    assert result.exit_code == 0, result.output
+    assert "intercepts on the axes" in result.output and "sx (MPa)" in result.output
+
+
+def test_command_without_loads(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file(loads=""))])
+    assert result.exit_code == 0, result.output
+    assert "no loads given" in result.output
+
+
+def test_malformed_layup_exits_with_status_2_and_names_the_position(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file(layup="[0/9x]s"))])
+    assert result.exit_code == 2
+    assert "character 'x' at position 5" in result.output
+
+
+def test_unknown_envelope_axis_exits_with_status_2(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--envelope", "Nx,Q"])
+    assert result.exit_code == 2 and "envelope axis 'Q'" in result.output

@@ -1,0 +1,166 @@
+"""Check reports: terminal text, Markdown, self-contained HTML, input safety, atomic rewrite."""
+
+import base64
+import hashlib
+import re
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from micromech.errors import InputError
+from micromech.report.check import (
+    format_check_text,
+    render_html,
+    render_markdown,
+    run_demo_check,
+    verdict_rows,
+    write_check_report,
+)
+from micromech.rve.check import CheckResult, CurveResult, check_case
+from micromech.rve.curves import curve_metrics
+from micromech.rve.verdicts import CAUTION, grade_property
+
+DEMO = Path(__file__).resolve().parents[2] / "data" / "demo"
+
+
+def small_result(folder: Path) -> CheckResult:
+    """A hand-made result: one curve, one consistent and one violating property."""
+    case = folder / "case.toml"
+    hist = folder / "x.csv"
+    case.write_text("name = 'small'\n")
+    hist.write_text("strain,stress\n0,0\n")
+    strain = np.linspace(0.0, 0.02, 120)
+    stress = 10e9 * strain / (1.0 + (strain / 0.008) ** 4) ** 0.25
+    m = curve_metrics(strain, stress, direction="x")
+    props = {
+        "E1": grade_property("E1", m.modulus, lower_bound=5e9, upper_bound=20e9,
+                             estimates={"mori_tanaka": 10.1e9, "halpin_tsai": 10.0e9},
+                             tolerance=0.05),
+        "E2": grade_property("E2", 7e12, lower_bound=3e9, upper_bound=15e9,
+                             estimates={"mori_tanaka": 7e9}, tolerance=0.1),
+    }
+    return CheckResult(case="small <test>", path=case, architecture="unidirectional",
+                       volume_fraction=0.5, arrangement="random", properties=props,
+                       curves={"x": CurveResult("x", strain, stress, m, str(hist))},
+                       notes=("a note",), inputs=(case, hist))
+
+
+def digest(p: Path) -> str:
+    return hashlib.sha256(p.read_bytes()).hexdigest()
+
+
+def test_text_report_has_table_reasons_of_problems_and_caution(tmp_path):
+    r = small_result(tmp_path)
+    text = format_check_text(r)
+    assert "property" in text and "violates_bounds" in text
+    assert "E2 (violates_bounds):" in text and "E1 (consistent):" not in text
+    assert "E1 (consistent):" in format_check_text(r, all_reasons=True)
+    assert "not design allowables" in text and "licensed engineer" in text
+    assert "Load cases:" in text and "Notes:" in text
+
+
+def test_verdict_rows_units_in_cells(tmp_path):
+    headers, rows = verdict_rows(small_result(tmp_path))
+    assert headers[0] == "property" and rows[1][0] == "E2"
+    assert rows[1][1].endswith("GPa") and rows[1][-1] == "violates_bounds"
+
+
+def test_report_files_html_self_contained_markdown_present(tmp_path):
+    r = small_result(tmp_path)
+    out = tmp_path / "report"
+    written = write_check_report(r, out)
+    html = (out / "report.html").read_text()
+    md = (out / "report.md").read_text()
+    # HTML: no link to anything outside the file; images are data URIs of PNGs
+    assert not re.search(r"(src|href)\s*=\s*[\"'](?!data:)", html)
+    assert "http://" not in html and "https://" not in html
+    assert "<script" not in html and "<link" not in html
+    uris = re.findall(r'src="data:image/png;base64,([^"]+)"', html)
+    assert len(uris) == 2
+    assert all(base64.b64decode(u).startswith(b"\x89PNG") for u in uris)
+    # Markdown: references the PNGs written next to it
+    for name in ("curves.png", "properties.png"):
+        assert f"({name})" in md and (out / name).is_file()
+    assert written["html"] == out / "report.html"
+    # caution in every document, escaping of the case name in HTML
+    assert CAUTION in md and CAUTION in html
+    assert "small &lt;test&gt;" in html
+
+
+def test_report_never_touches_inputs(tmp_path):
+    r = small_result(tmp_path)
+    before = {p: (digest(p), p.stat().st_mtime_ns) for p in r.inputs}
+    write_check_report(r, tmp_path / "out")
+    assert {p: (digest(p), p.stat().st_mtime_ns) for p in r.inputs} == before
+
+
+def test_report_refuses_the_folder_of_the_inputs(tmp_path):
+    r = small_result(tmp_path)
+    with pytest.raises(InputError, match=r"holds the case's input files \(case.toml, x.csv\)"):
+        write_check_report(r, tmp_path)
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["case.toml", "x.csv"]
+
+
+def test_report_refuses_an_existing_file_as_folder(tmp_path):
+    r = small_result(tmp_path)
+    f = tmp_path / "taken"
+    f.write_text("keep")
+    with pytest.raises(InputError, match="is an existing file; give a folder"):
+        write_check_report(r, f)
+    assert f.read_text() == "keep"
+
+
+def test_rewriting_replaces_whole_files_and_leaves_no_temp(tmp_path):
+    r = small_result(tmp_path)
+    out = tmp_path / "out"
+    (out).mkdir()
+    (out / "report.md").write_text("an old report")
+    write_check_report(r, out)
+    first = (out / "report.md").read_text()
+    assert first.startswith("# RVE check: small <test>")
+    write_check_report(r, out)
+    assert (out / "report.md").read_text() == first
+    assert not [p for p in out.iterdir() if p.name.startswith(".")]
+
+
+def test_failed_rewrite_keeps_the_previous_report(tmp_path, monkeypatch):
+    import os
+
+    r = small_result(tmp_path)
+    out = tmp_path / "out"
+    write_check_report(r, out)
+    old = (out / "report.html").read_bytes()
+    real_replace = os.replace
+
+    def fail_on_html(src, dst):
+        if str(dst).endswith("report.html"):
+            raise OSError("simulated crash while replacing")
+        real_replace(src, dst)
+
+    monkeypatch.setattr(os, "replace", fail_on_html)
+    with pytest.raises(OSError, match="simulated crash"):
+        write_check_report(r, out)
+    assert (out / "report.html").read_bytes() == old
+    assert not [p for p in out.iterdir() if p.name.startswith(".")]
+
+
+def test_markdown_and_html_render_without_figures(tmp_path):
+    r = small_result(tmp_path)
+    assert "![" not in render_markdown(r)
+    assert "<img" not in render_html(r)
+
+
+def test_demo_check_verdicts_without_writing(tmp_path):
+    out = run_demo_check(tmp_path, write=False)
+    assert out["crossply"].worst_verdict == "consistent"
+    assert {p.verdict for p in out["crossply_bad"].properties.values()} == {
+        "consistent", "suspect", "violates_bounds"}
+    assert not any(tmp_path.iterdir())
+
+
+def test_demo_bad_report_is_written_and_names_the_causes(tmp_path):
+    r = check_case(DEMO / "crossply_bad.toml")
+    write_check_report(r, tmp_path / "bad")
+    md = (tmp_path / "bad" / "report.md").read_text()
+    assert "violates_bounds" in md and "A unit slip" in md and "check size.z" in md

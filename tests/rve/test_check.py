@@ -1,0 +1,248 @@
+"""check_case with the real estimates: unidirectional and cross-ply cases, demo data."""
+
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from micromech.case import case_from_dict, load_case
+from micromech.errors import CaseFileError, InputError
+from micromech.homogenize import estimate
+from micromech.laminate.stack import stack_constants
+from micromech.rve.check import (
+    CheckResult,
+    check_case,
+    expected_properties,
+    property_name,
+)
+
+DEMO = Path(__file__).resolve().parents[2] / "data" / "demo"
+GLASS_EPOXY = {"fibre": {"use": "e-glass"}, "matrix": {"use": "epoxy"}}
+
+
+def ud_case(C_gpa, vf=0.55, arrangement="random", **extra):
+    data = {**GLASS_EPOXY,
+            "composite": {"volume_fraction": vf, "arrangement": arrangement},
+            "rve": {"architecture": "unidirectional",
+                    "stiffness": {"matrix": np.asarray(C_gpa).tolist(), "unit": "GPa"}}}
+    data.update(extra)
+    return case_from_dict(data)
+
+
+def mt_stiffness_gpa(vf=0.55, arrangement="random"):
+    case = case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": vf,
+                                                         "arrangement": arrangement}})
+    return estimate(case.composite, strengths=False)["mori_tanaka"].stiffness() / 1e9
+
+
+# --- unidirectional, from a full stiffness ---------------------------------------------------
+
+def test_ud_stiffness_equal_to_mori_tanaka_is_consistent_throughout():
+    r = check_case(ud_case(mt_stiffness_gpa()))
+    assert r.worst_verdict == "consistent" and r.exit_code == 0
+    assert {"E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu23"} <= set(r.properties)
+    assert r.properties["E1"].best_model == "mori_tanaka"
+
+
+def test_ud_stiffness_times_1000_violates_with_unit_slip():
+    # the matrix written in MPa but declared in GPa: every modulus 1000 x too large
+    r = check_case(ud_case(mt_stiffness_gpa() * 1000))
+    assert r.exit_code == 1
+    e1 = r.properties["E1"]
+    assert e1.verdict == "violates_bounds"
+    assert e1.reasons[1].startswith("Likely cause 1: A unit slip")
+    assert "stiffness matrix" in e1.reasons[1]
+    # Poisson ratios are ratios: unchanged and consistent
+    assert r.properties["nu12"].verdict == "consistent"
+
+
+def test_ud_axial_modulus_40_percent_low_is_suspect():
+    from micromech.tensors import engineering_constants, orthotropic_stiffness
+
+    c = engineering_constants(mt_stiffness_gpa())
+    C = orthotropic_stiffness(0.6 * c["E1"], c["E2"], c["E3"], c["G23"], c["G13"],
+                              c["G12"], c["nu23"], c["nu13"], c["nu12"])
+    r = check_case(ud_case(C))
+    e1 = r.properties["E1"]
+    assert e1.verdict == "suspect"
+    assert e1.lower_bound < e1.value < e1.upper_bound
+    assert any("below the expected band" in x for x in e1.reasons)
+    assert any("Vf = 0.3" in x for x in e1.reasons)  # the fraction that would give it
+    assert r.properties["E2"].verdict == "consistent"
+
+
+def test_ud_transverse_modulus_40_percent_low_is_below_reuss_here():
+    # glass/epoxy at Vf 0.55: 0.6 x Mori-Tanaka E2 = 6.1 GPa < Reuss 7.3 GPa
+    from micromech.tensors import engineering_constants, orthotropic_stiffness
+
+    c = engineering_constants(mt_stiffness_gpa())
+    C = orthotropic_stiffness(c["E1"], 0.6 * c["E2"], 0.6 * c["E3"], 0.6 * c["G23"], c["G13"],
+                              c["G12"], c["nu23"], c["nu13"], c["nu12"])
+    assert check_case(ud_case(C)).properties["E2"].verdict == "violates_bounds"
+
+
+def test_ud_bounds_are_voigt_and_reuss_of_the_constituents():
+    # E1 upper bound = 1/S11 of the Voigt stiffness; E2 lower bound = harmonic mean of E
+    # (isotropic phases: exact identity)
+    r = check_case(ud_case(mt_stiffness_gpa()))
+    vf, Ef, nuf, Em, num = 0.55, 72e9, 0.22, 3.5e9, 0.35
+    assert r.properties["E2"].lower_bound == pytest.approx(1 / (vf / Ef + (1 - vf) / Em))
+    # isotropic phases: the Voigt stiffness is isotropic, E = 9KG/(3K+G) of the mean K, G
+    K = vf * Ef / (3 * (1 - 2 * nuf)) + (1 - vf) * Em / (3 * (1 - 2 * num))
+    G = vf * Ef / (2 * (1 + nuf)) + (1 - vf) * Em / (2 * (1 + num))
+    assert r.properties["E1"].upper_bound == pytest.approx(9 * K * G / (3 * K + G))
+    assert r.properties["E1"].upper_bound > vf * Ef + (1 - vf) * Em  # above the plain mean
+
+
+def test_ud_hs_band_dropped_for_transverse_moduli_of_square_arrays():
+    r = check_case(ud_case(mt_stiffness_gpa(arrangement="square"), arrangement="square"))
+    assert r.properties["E2"].hs_band is None
+    assert r.properties["E1"].hs_band is not None
+    r2 = check_case(ud_case(mt_stiffness_gpa()))
+    assert r2.properties["E2"].hs_band is not None
+
+
+def test_tolerance_override_narrows_the_band():
+    C = mt_stiffness_gpa()
+    C2 = C.copy()
+    C2[1, 1] *= 1.1  # stiffer transversely: E2 up by about 10 %
+    assert check_case(ud_case(C2)).properties["E2"].verdict == "consistent"
+    r = check_case(ud_case(C2), tolerances=["E2=0.02"])
+    assert r.properties["E2"].verdict == "suspect"
+    assert "given by the user" in r.properties["E2"].reasons[0]
+
+
+def test_case_check_table_tolerance_is_used():
+    C2 = mt_stiffness_gpa()
+    C2[1, 1] *= 1.1
+    r = check_case(ud_case(C2, check={"tolerance": {"E2": 0.02}}))
+    assert r.properties["E2"].verdict == "suspect"
+
+
+# --- cross-ply, from a stiffness and from the demo histories ---------------------------------
+
+def crossply_stiffness_gpa(vf=0.55):
+    case = case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": vf}})
+    C = estimate(case.composite, strengths=False)["mori_tanaka"].stiffness()
+    return stack_constants(np.stack([C, C]), [0.5, 0.5], angles=[0.0, 90.0]).stiffness / 1e9
+
+
+def test_crossply_stack_of_mt_plies_is_consistent_and_uses_stack_names():
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "crossply", "layup": "[0/90]",
+                    "stiffness": {"matrix": crossply_stiffness_gpa().tolist(), "unit": "GPa"}}}
+    r = check_case(case_from_dict(data))
+    assert r.worst_verdict == "consistent"
+    ex = r.properties["Ex"]
+    assert ex.best_model == "stack_mori_tanaka"
+    assert {"stack_halpin_tsai", "stack_hashin_shtrikman_lower",
+            "stack_hashin_shtrikman_upper"} <= set(ex.estimates)
+
+
+def test_crossply_voigt_bound_is_isotropic_mean_for_isotropic_phases():
+    case = load_case(DEMO / "crossply.toml")
+    e = expected_properties(case, ["Ex", "Ez", "Gxz"])
+    # isotropic phases: Voigt stiffness isotropic; its Young's modulus (exact identity)
+    vf, Ef, nuf, Em, num = 0.55, 72e9, 0.22, 3.5e9, 0.35
+    K = vf * Ef / (3 * (1 - 2 * nuf)) + (1 - vf) * Em / (3 * (1 - 2 * num))
+    G = vf * Ef / (2 * (1 + nuf)) + (1 - vf) * Em / (2 * (1 + num))
+    assert e["Ex"].upper_bound == pytest.approx(9 * K * G / (3 * K + G))
+    assert e["Ez"].upper_bound == pytest.approx(e["Ex"].upper_bound)
+    assert e["Gxz"].upper_bound == pytest.approx(G)
+
+
+def test_demo_good_case_is_consistent_throughout():
+    r = check_case(DEMO / "crossply.toml")
+    bad = {n: p.reasons for n, p in r.properties.items() if p.verdict != "consistent"}
+    assert bad == {}
+    assert r.exit_code == 0
+    assert {"Ex", "Ey", "Ez", "nuxy", "nuzx", "yield_strength_z"} <= set(r.properties)
+    assert set(r.curves) == {"x", "y", "z"}
+
+
+def test_demo_bad_case_shows_all_three_verdicts_and_the_causes():
+    r = check_case(DEMO / "crossply_bad.toml")
+    verdicts = {p.verdict for p in r.properties.values()}
+    assert verdicts == {"consistent", "suspect", "violates_bounds"}
+    ex = r.properties["Ex"]
+    assert ex.verdict == "violates_bounds" and r.exit_code == 1
+    assert any("A unit slip" in x and "kN" in x for x in ex.reasons)
+    assert any("check size.z" in n for n in r.notes)
+    assert r.properties["Ey"].verdict == "suspect"
+    assert r.properties["Ez"].verdict == "suspect"
+
+
+def test_as_dict_follows_the_json_contract():
+    d = check_case(DEMO / "crossply.toml").as_dict()
+    assert d["worst_verdict"] == "consistent"
+    for key in ("modulus", "modulus_fit_range", "r2", "yield_offset", "yield_strength",
+                "ultimate_strength", "strain_at_ultimate", "final_strain", "failed"):
+        assert key in d["curves"]["x"]
+    for key in ("value", "lower_bound", "upper_bound", "estimates", "verdict", "reasons"):
+        assert key in d["properties"]["Ex"]
+    assert "licensed engineer" in d["caution"]
+
+
+def test_offset_argument_moves_the_yield_point():
+    a = check_case(DEMO / "crossply.toml")
+    b = check_case(DEMO / "crossply.toml", offset=0.004)
+    assert b.curves["x"].metrics.yield_offset == 0.004
+    assert b.properties["yield_strength_x"].value > a.properties["yield_strength_x"].value
+
+
+def test_inputs_list_the_case_and_histories():
+    r = check_case(DEMO / "crossply.toml")
+    assert isinstance(r, CheckResult)
+    assert {p.name for p in r.inputs} == {"crossply.toml", "rve_x.csv", "rve_y.csv",
+                                          "rve_z.csv"}
+
+
+def test_property_names_by_architecture():
+    assert property_name("unidirectional", "x") == "E1"
+    assert property_name("unidirectional", "yz") == "G23"
+    assert property_name("unidirectional", "y", "x") == "nu21"
+    assert property_name("crossply", "z", "y") == "nuzy"
+    assert property_name("stack", "xz") == "Gxz"
+
+
+# --- errors ----------------------------------------------------------------------------------
+
+def test_case_without_rve_raises():
+    case = case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.5}})
+    with pytest.raises(CaseFileError, match=r"no \[rve\] results to check"):
+        check_case(case)
+
+
+def test_case_without_composite_raises():
+    case = case_from_dict({"rve": {"architecture": "unidirectional",
+                                   "stiffness": {"matrix": np.eye(6).tolist()}}})
+    with pytest.raises(CaseFileError, match=r"needs \[fibre\], \[matrix\] and \[composite\]"):
+        check_case(case)
+
+
+def test_bad_offset_raises():
+    with pytest.raises(InputError, match="offset = 0.0 must be a strain between 0 and 1"):
+        check_case(DEMO / "crossply.toml", offset=0.0)
+
+
+def test_stack_without_layup_raises():
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "stack",
+                    "stiffness": {"matrix": crossply_stiffness_gpa().tolist(), "unit": "GPa"}}}
+    with pytest.raises(CaseFileError, match="architecture = 'stack' needs layup"):
+        check_case(case_from_dict(data))
+
+
+def test_unknown_direction_raises():
+    with pytest.raises(InputError, match="direction = 'q'"):
+        property_name("crossply", "q")
+
+
+def test_poisson_with_load_axis_as_lateral_raises():
+    with pytest.raises(InputError, match="needs a lateral axis among x, y, z"):
+        property_name("unidirectional", "x", "x")
+
+
+def test_unknown_tolerance_name_raises():
+    with pytest.raises(InputError, match="unknown property 'E22'"):
+        check_case(DEMO / "crossply.toml", tolerances=["E22=0.1"])
