@@ -27,9 +27,9 @@ import numpy as np
 
 SIZE_UM = (120.0, 70.0, 70.0)  # invented UD cell, fibres along x
 # invented moduli (Pa) and Poisson ratios of a glass/epoxy-like UD cell
-MODULI = {"x": 42e9, "y": 12e9, "z": 12e9, "xy": 4.3e9, "xz": 4.3e9, "yz": 4.0e9}
-POISSON = {("x", "y"): 0.26, ("x", "z"): 0.26, ("y", "z"): 0.42, ("y", "x"): 0.074,
-           ("z", "x"): 0.074, ("z", "y"): 0.42}
+MODULI = {"x": 41.6e9, "y": 10.5e9, "z": 10.5e9, "xy": 3.7e9, "xz": 3.7e9, "yz": 3.4e9}
+POISSON = {("x", "y"): 0.27, ("x", "z"): 0.27, ("y", "z"): 0.44, ("y", "x"): 0.27 * 10.5 / 41.6,
+           ("z", "x"): 0.27 * 10.5 / 41.6, ("z", "y"): 0.44}
 YIELD = {"x": 900e6, "y": 60e6, "z": 60e6, "xy": 50e6, "xz": 50e6, "yz": 45e6}
 
 CASE = """\

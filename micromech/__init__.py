@@ -14,6 +14,18 @@ from micromech.errors import (
     RegistryError,
     UnitError,
 )
+from micromech.laminate import (
+    Laminate,
+    Ply,
+    PlyMaterial,
+    PlyStrengths,
+    analyse_laminate,
+    failure_envelope,
+    first_ply_failure,
+    last_ply_failure,
+    parse_layup,
+    stack_constants,
+)
 from micromech.materials import (
     Composite,
     Isotropic,
@@ -30,6 +42,16 @@ from micromech.results import ElasticConstants
 from micromech.units import parse_quantity
 
 __all__ = [
+    "Laminate",
+    "Ply",
+    "PlyMaterial",
+    "PlyStrengths",
+    "analyse_laminate",
+    "failure_envelope",
+    "first_ply_failure",
+    "last_ply_failure",
+    "parse_layup",
+    "stack_constants",
     "CaseFileError",
     "Composite",
     "DataFileError",

@@ -426,6 +426,120 @@ def rve_command(
 # --- size (design) --------------------------------------------------------------------------
 
 
+#: Monte Carlo runs with more samples than this show a progress bar on standard error.
+_SIZE_PROGRESS_ABOVE = 1_000_000
+
+
+def _size_percentiles(text: str) -> tuple[float, ...]:
+    from micromech.errors import InputError
+
+    try:
+        out = tuple(float(p) for p in text.split(",") if p.strip())
+    except ValueError:
+        raise InputError(f"--percentiles: {text!r} is not a comma-separated list of numbers "
+                         "(e.g. '5,50,95')") from None
+    if not out:
+        raise InputError("--percentiles: give at least one percentile (e.g. '5,50,95')")
+    return out
+
+
+@cli.command("size")
+@click.argument("case_file", type=click.Path(dir_okay=False))
+@click.option("--target", "-t", "targets", multiple=True, metavar="NAME=VALUE",
+              help="Target, repeatable: NAME=VALUE, NAME>=VALUE or NAME<=VALUE with units, e.g. "
+                   "'E2=9GPa', 'density<=1.6 g/cm^3', 'Ex>=50GPa' (needs [laminate]), "
+                   "'E1/density>=40 GPa/(g/cm^3)'.")
+@click.option("--model", "-m", "models", multiple=True,
+              help="Only these estimates (repeatable; default: all that apply).")
+@click.option("--no-bounds", is_flag=True, help="Leave out the Hashin-Shtrikman bounds.")
+@click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
+@click.option("--plot", "plot_file", type=click.Path(dir_okay=False),
+              help="Each target's property against fibre fraction, with the target line, to a "
+                   "PNG file (histograms go to FILE-scatter.png with --uncertainty).")
+@click.option("--uncertainty", "samples", type=click.IntRange(min=2), default=None,
+              metavar="N", help="Monte Carlo scatter of the case's properties with N samples.")
+@click.option("--cov", type=click.FloatRange(min=0.0), default=0.05, show_default=True,
+              help="Coefficient of variation of the constituent moduli.")
+@click.option("--cov-fraction", type=click.FloatRange(min=0.0), default=0.02,
+              show_default=True, help="Coefficient of variation of the fibre fraction.")
+@click.option("--distribution", type=click.Choice(["normal", "lognormal"]), default="normal",
+              show_default=True, help="Distribution of every uncertain input.")
+@click.option("--percentiles", default="5,50,95", show_default=True,
+              help="Percentiles to report, comma-separated.")
+@click.option("--seed", type=int, default=0, show_default=True,
+              help="Seed of the Monte Carlo random generator.")
+@click.option("--mc-model", default=None,
+              help="Estimate propagated by --uncertainty (default: the case's ply model).")
+def size_command(
+    case_file: str, targets: tuple[str, ...], models: tuple[str, ...], no_bounds: bool,
+    as_json: bool, plot_file: str | None, samples: int | None, cov: float, cov_fraction: float,
+    distribution: str, percentiles: str, seed: int, mc_model: str | None,
+) -> None:
+    """Fibre fraction at which the [composite] of CASE_FILE meets property targets.
+
+    Prints, per target, the fraction under each estimate, the interval the bounds admit and a
+    status (an unreachable target is an answer), then the window meeting all targets with the
+    weight fraction and density. With --uncertainty, Monte Carlo percentiles of the properties.
+    """
+    from pathlib import Path
+
+    from micromech.case import load_case
+    from micromech.design import monte_carlo, size_fraction
+    from micromech.errors import InputError
+    from micromech.report.design import (
+        CAUTION,
+        monte_carlo_table,
+        plot_histograms,
+        plot_sizing,
+        sizing_table,
+    )
+
+    if not targets and samples is None:
+        raise InputError("size: give at least one --target (e.g. --target E2=9GPa) or "
+                         "--uncertainty N")
+    pct = _size_percentiles(percentiles)
+    case = load_case(case_file)
+    result = None
+    if targets:
+        result = size_fraction(case, list(targets), models=list(models) or None,
+                               bounds=not no_bounds)
+    mc = None
+    if samples is not None:
+        kwargs: dict[str, Any] = dict(model=mc_model, cov=cov, cov_fraction=cov_fraction,
+                                      distribution=distribution, seed=seed, percentiles=pct)
+        if samples > _SIZE_PROGRESS_ABOVE:
+            with click.progressbar(length=samples, label="Monte Carlo", file=sys.stderr) as bar:
+                seen = [0]
+
+                def progress(done: int, total: int) -> None:
+                    bar.update(done - seen[0])
+                    seen[0] = done
+
+                mc = monte_carlo(case, samples, progress=progress, **kwargs)
+        else:
+            mc = monte_carlo(case, samples, **kwargs)
+    written = []
+    if plot_file is not None:
+        if result is not None:
+            written.append(plot_sizing(case, result, plot_file))
+        if mc is not None:
+            p = Path(plot_file)
+            hist = p if result is None else p.with_name(f"{p.stem}-scatter{p.suffix or '.png'}")
+            written.append(plot_histograms(mc, hist))
+    if as_json:
+        emit_json({"case": case.name, "sizing": None if result is None else result.as_dict(),
+                   "uncertainty": None if mc is None else mc.as_dict(), "caution": CAUTION})
+        return
+    blocks = []
+    if result is not None:
+        blocks.append(sizing_table(result, title=f"case: {case.name}"))
+    if mc is not None:
+        blocks.append(monte_carlo_table(mc, title="" if result else f"case: {case.name}"))
+    click.echo("\n\n".join(blocks))
+    for w in written:
+        click.echo(f"plot written to {w}")
+
+
 # --- check (rve results) --------------------------------------------------------------------
 
 

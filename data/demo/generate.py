@@ -87,8 +87,8 @@ def history(direction: str, E: float, nus: dict[str, float], size: dict[str, flo
     return names, np.column_stack(cols)
 
 
-def main() -> None:
-    """Write rve_x.csv, rve_y.csv, rve_z.csv next to this script."""
+def main(out_dir: Path = HERE) -> None:
+    """Write rve_x.csv, rve_y.csv, rve_z.csv (next to this script by default)."""
     est = stack_estimate()
     rng = np.random.default_rng(SEED)
     size = {"x": 120e-6, "y": 120e-6, "z": 120e-6}  # the true cell (see crossply.toml)
@@ -105,7 +105,7 @@ def main() -> None:
             "N, displacements in um\n"
         )
         body = "\n".join(",".join(f"{x:.6g}" for x in row) for row in rows)
-        (HERE / f"rve_{d}.csv").write_text(header + ",".join(names) + "\n" + body + "\n",
+        (Path(out_dir) / f"rve_{d}.csv").write_text(header + ",".join(names) + "\n" + body + "\n",
                                            encoding="utf-8")
 
 

@@ -182,8 +182,9 @@ class Constituents:
             angles = parse_layup(layup)
         f = composite.fibre if fibre is None else fibre
         m = composite.matrix if matrix is None else matrix
-        rf = fibre_density if fibre_density is not None else getattr(f, "density", None)
-        rm = matrix_density if matrix_density is not None else getattr(m, "density", None)
+        rf = _opt_arr(fibre_density if fibre_density is not None else getattr(f, "density", None))
+        rm = _opt_arr(matrix_density if matrix_density is not None
+                      else getattr(m, "density", None))
         return cls(
             fibre=f, matrix=m, inclusion=composite.inclusion,
             aspect_ratio=composite.aspect_ratio if composite.inclusion == "spheroid" else None,
@@ -251,7 +252,7 @@ class Constituents:
         if self.shape == ():
             return self
 
-        def ex(x: Array | None) -> Array | None:
+        def ex(x: Array | None) -> Any:
             return None if x is None else np.broadcast_to(x, self.shape)[..., None]
 
         f = FibrePhase(**{k.name: ex(getattr(self.fibre, k.name)) for k in fields(self.fibre)})
@@ -345,7 +346,7 @@ def _bounds_pair(c: Constituents, v: Array) -> tuple[ElasticConstants, ElasticCo
         return None
     if c.inclusion == "sphere":
         return hb.hashin_shtrikman(c.fibre, c.matrix, v)
-    return hb.hashin_shtrikman_spheroid(c.fibre, c.matrix, v, c.aspect_ratio)
+    return hb.hashin_shtrikman_spheroid(c.fibre, c.matrix, v, float(c.aspect_ratio or 1.0))
 
 
 def mass_at(c: Constituents, vf: ArrayLike) -> dict[str, Array]:
@@ -371,8 +372,9 @@ def mass_at(c: Constituents, vf: ArrayLike) -> dict[str, Array]:
     if not c.has_density:
         return {}
     v = np.asarray(vf, dtype=np.float64)
-    mf = v * c.fibre_density
-    rho = mf + (1.0 - v - c.void_fraction) * c.matrix_density
+    rf, rm = np.asarray(c.fibre_density), np.asarray(c.matrix_density)
+    mf = v * rf
+    rho = mf + (1.0 - v - c.void_fraction) * rm
     return {"density": rho, "weight_fraction": mf / rho}
 
 
@@ -538,14 +540,15 @@ def laminate_in_plane(
     z = np.concatenate(([0.0], np.cumsum(t))) - t.sum() / 2.0
     h = float(t.sum())
     Q = reduced_stiffness(E1, E2, nu12, G12)
-    A = B = D = None
-    for k in range(n):
+    A: Any = 0.0
+    B: Any = 0.0
+    D: Any = 0.0
+    for k in range(n):  # a loop over plies, not design points
         Qb = transformed_reduced_stiffness(Q, ang[..., k])
-        w1, w2, w3 = z[k + 1] - z[k], (z[k + 1] ** 2 - z[k] ** 2) / 2, (z[k + 1] ** 3 - z[k] ** 3) / 3
-        A = Qb * w1 if A is None else A + Qb * w1
-        B = Qb * w2 if B is None else B + Qb * w2
-        D = Qb * w3 if D is None else D + Qb * w3
-    assert A is not None and B is not None and D is not None
+        z0, z1 = z[k], z[k + 1]
+        A = A + Qb * (z1 - z0)
+        B = B + Qb * ((z1**2 - z0**2) / 2.0)
+        D = D + Qb * ((z1**3 - z0**3) / 3.0)
     coupled = bending == "free" and bool(np.any(np.abs(B) > 1e-12 * np.abs(A).max() * h))
     a = np.linalg.inv(A - B @ np.linalg.solve(D, B) if coupled else A)
     return {"Ex": 1.0 / (h * a[..., 0, 0]), "Ey": 1.0 / (h * a[..., 1, 1]),

@@ -650,7 +650,8 @@ def _size_one(
 def _reached_sentence(what: str, sols: Mapping[str, FractionSolution],
                       frange: tuple[float, float] | None) -> str:
     span = "" if frange is None else (
-        f"Vf {frange[0]:.4g}" if frange[0] == frange[1] else f"Vf {frange[0]:.4g} to {frange[1]:.4g}")
+        f"Vf {frange[0]:.4g}" if frange[0] == frange[1]
+        else f"Vf {frange[0]:.4g} to {frange[1]:.4g}")
     first = next(iter(sols.values()))
     if first.target.relation == "==":
         return f"{what} is reached at {span} over the models"

@@ -160,7 +160,8 @@ def find_crossings(
     d = np.diff(g)
     inner = np.arange(1, points - 1)
     okk = ok[inner - 1] & ok[inner] & ok[inner + 1]
-    same = (np.sign(g[inner - 1]) == np.sign(g[inner])) & (np.sign(g[inner]) == np.sign(g[inner + 1]))
+    sg = np.sign(g)
+    same = (sg[inner - 1] == sg[inner]) & (sg[inner] == sg[inner + 1])
     same &= g[inner] != 0.0
     peak = (d[inner - 1] * d[inner] < 0.0) & okk & same
     # a maximum below the target or a minimum above it may reach it

@@ -3,8 +3,8 @@
 The constituent constants and the fibre fraction get independent distributions (mean = the
 nominal value, a coefficient of variation per group, normal or lognormal); arrays of samples go
 straight into the vectorised estimators through :class:`~micromech.homogenize.FibrePhase` and
-:class:`~micromech.homogenize.MatrixPhase` arrays (see :func:`micromech.design.uncertainty.propagate`
-for the sampling and rejection rules).
+:class:`~micromech.homogenize.MatrixPhase` arrays (see
+:func:`micromech.design.uncertainty.propagate` for the sampling and rejection rules).
 
 Inputs and their physical ranges (samples outside are redrawn):
 

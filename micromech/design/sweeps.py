@@ -66,7 +66,7 @@ class Sweep:
         ``"volume_fraction"``, ``"angle"`` (degrees) or ``"ply_share"``.
     x : ndarray, shape (m,)
         The sweep values.
-    property : str
+    name : str
         Property name (or ratio ``A/B``).
     values : dict of str to ndarray, shape (..., m)
         Per model (leading axes: several constituents).
@@ -80,7 +80,7 @@ class Sweep:
 
     variable: str
     x: Array
-    property: str
+    name: str
     values: dict[str, Array]
     lower: Array | None = None
     upper: Array | None = None
@@ -90,7 +90,7 @@ class Sweep:
     @property
     def unit(self) -> tuple[str, float]:
         """Display unit of the property and the SI amount of one display unit."""
-        return property_unit(self.property)
+        return property_unit(self.name)
 
     def as_dict(self) -> dict[str, Any]:
         """Return the JSON form (SI; nested lists for several constituents).
@@ -101,7 +101,7 @@ class Sweep:
             Keys variable, x, property, values, lower, upper, fixed, caution.
         """
         return {
-            "variable": self.variable, "x": self.x.tolist(), "property": self.property,
+            "variable": self.variable, "x": self.x.tolist(), "property": self.name,
             "values": {k: v.tolist() for k, v in self.values.items()},
             "lower": None if self.lower is None else self.lower.tolist(),
             "upper": None if self.upper is None else self.upper.tolist(),
@@ -175,7 +175,7 @@ def sweep(
     vals = {k: np.broadcast_to(v, shape).copy() for k, v in vals.items()}
     if lo is not None and hi is not None:
         lo, hi = np.broadcast_to(lo, shape).copy(), np.broadcast_to(hi, shape).copy()
-    return Sweep(variable=variable, x=xa, property=prop, values=vals, lower=lo, upper=hi,
+    return Sweep(variable=variable, x=xa, name=prop, values=vals, lower=lo, upper=hi,
                  fixed=dict(fixed or {}))
 
 
@@ -221,7 +221,7 @@ def sweep_fraction(
     ply_thickness: float | None = None,
     points: int = 101,
 ) -> Sweep:
-    """A design property over the fibre volume fraction, for every model and the bounds.
+    """Sweep a design property over the fibre volume fraction, for every model and the bounds.
 
     Parameters
     ----------
@@ -338,7 +338,7 @@ def sweep_angle(
     fibre: Any = None,
     matrix: Any = None,
 ) -> Sweep:
-    """In-plane constants over the fibre angle: a single off-axis ply or an angle-ply laminate.
+    """Sweep in-plane constants over the fibre angle: one off-axis ply or an angle-ply laminate.
 
     Parameters
     ----------
@@ -413,7 +413,7 @@ def sweep_ply_share(
     fibre: Any = None,
     matrix: Any = None,
 ) -> Sweep:
-    """In-plane constants of a symmetric 0/90 laminate over the share of 0-degree plies.
+    """Sweep in-plane constants of a symmetric 0/90 laminate over the share of 0-degree plies.
 
     Parameters
     ----------

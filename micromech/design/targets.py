@@ -144,7 +144,7 @@ def parse_property_value(value: Any, name: str) -> float:
     ureg = _registry()
     unit = f"({_si_unit(num_kind)})/({_si_unit(den_kind)})"
     try:
-        q = ureg.Quantity(text.replace("µ", "u"))
+        q: Any = ureg.Quantity(text.replace("µ", "u"))
         return float(q.to(unit).magnitude)
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
         raise UnitError(f"{field} expects a value in {unit} (e.g. '40 GPa/(g/cm^3)'), could not "

@@ -79,7 +79,9 @@ def thermal_vector(axial: ArrayLike, transverse: ArrayLike) -> tuple[Array, Arra
     return W.SQ2 * np.asarray(transverse, dtype=np.float64), np.asarray(axial, dtype=np.float64)
 
 
-def solve_block(M: W.TI, b0: Array, b1: Array) -> tuple[Array, Array]:
+def solve_block(
+    M: W.TI, b0: Array, b1: Array, scale: Array | float = 0.0
+) -> tuple[Array, Array]:
     """Solve ``[[c, e], [f, d]] x = b`` for each point, robust to a singular block.
 
     Where the block is singular (relative determinant below 1e-12), the minimum-norm solution of
@@ -92,6 +94,9 @@ def solve_block(M: W.TI, b0: Array, b1: Array) -> tuple[Array, Array]:
         Tensor whose (c, d, e, f) block is used.
     b0, b1 : ndarray, shape (...)
         Right-hand side.
+    scale : ndarray or float
+        Size of the tensors M is a difference of; a block below 1e-10 of it counts as zero
+        (solution 0).
 
     Returns
     -------
@@ -107,7 +112,8 @@ def solve_block(M: W.TI, b0: Array, b1: Array) -> tuple[Array, Array]:
     safe_n = np.where(nrm > 0.0, nrm, 1.0)
     p0 = (M.c * b0 + M.f * b1) / safe_n
     p1 = (M.e * b0 + M.d * b1) / safe_n
-    return np.where(ok, x0, p0), np.where(ok, x1, p1)
+    zero = nrm <= (1e-10 * np.asarray(scale)) ** 2
+    return (np.where(zero, 0.0, np.where(ok, x0, p0)), np.where(zero, 0.0, np.where(ok, x1, p1)))
 
 
 def levin_block(
@@ -139,22 +145,23 @@ def levin_block(
     *Mech. Solids* 2, 58-61; Rosen, B. W., Hashin, Z. (1970). Effective thermal expansion
     coefficients and specific heats of composite materials. *Int. J. Eng. Sci.* 8, 157-173.
     """
-    vm = 1.0 - vf
     f0, f1 = thermal_vector(af1, af2)
     m0, m1 = thermal_vector(am1, am2)
     dS = W.sub(S_f, S_m)
-    x0, x1 = solve_block(dS, f0 - m0, f1 - m1)
-    sc = S_eff.c - (vf * S_f.c + vm * S_m.c)
-    sd = S_eff.d - (vf * S_f.d + vm * S_m.d)
-    se = S_eff.e - (vf * S_f.e + vm * S_m.e)
-    sf = S_eff.f - (vf * S_f.f + vm * S_m.f)
-    a0 = vf * f0 + vm * m0 + sc * x0 + se * x1
-    a1 = vf * f1 + vm * m1 + sf * x0 + sd * x1
-    return a1, a0 / W.SQ2
+    scale = np.sqrt(sum(np.square(v) for v in (*S_f[:4], *S_m[:4])))
+    x0, x1 = solve_block(dS, f0 - m0, f1 - m1, scale)
+    # alpha* = m + vf (f - m) + (S* - S_m - vf dS) x: the per-phase terms are combined first
+    u0 = (f0 - m0) - (dS.c * x0 + dS.e * x1)
+    u1 = (f1 - m1) - (dS.f * x0 + dS.d * x1)
+    k0 = m0 - (S_m.c * x0 + S_m.e * x1)
+    k1 = m1 - (S_m.f * x0 + S_m.d * x1)
+    a0 = k0 + vf * u0 + S_eff.c * x0 + S_eff.e * x1
+    a1 = k1 + vf * u1 + S_eff.f * x0 + S_eff.d * x1
+    return np.asarray(a1), np.asarray(a0 / W.SQ2)
 
 
 def ti_result(
-    C: W.TI,
+    C: W.TI | None,
     *,
     model: str,
     source: str,
@@ -166,8 +173,8 @@ def ti_result(
 
     Parameters
     ----------
-    C : walpole.TI
-        Effective stiffness, Pa.
+    C : walpole.TI or None
+        Effective stiffness, Pa (None: read k23 from the compliance S).
     model, source : str
         Model key and published source.
     alpha : tuple of ndarray, optional
@@ -183,14 +190,20 @@ def ti_result(
         E1, E2 = E3, G12 = G13, G23, nu12 = nu13, nu23.
     """
     if S is None:
+        if C is None:
+            raise ValueError("ti_result needs C or S")  # programming error, not user input
         S = W.inv(C)
     E1 = 1.0 / S.d
-    E2 = 2.0 / (S.c + S.g)
-    ex = {"k23": C.c / 2.0}
+    tr = S.c + S.g
+    E2 = 2.0 / tr
+    k23 = C.c / 2.0 if C is not None else 0.5 * S.d / (S.c * S.d - S.e * S.f)
+    ex = {"k23": k23}
     ex.update(extra or {})
+    G12 = 0.5 / S.h
+    nu12 = (-1.0 / W.SQ2) * S.e * E1
     return ElasticConstants(
-        E1=E1, E2=E2, E3=E2, G12=0.5 / S.h, G13=0.5 / S.h, G23=0.5 / S.g,
-        nu12=-S.e / W.SQ2 * E1, nu13=-S.e / W.SQ2 * E1, nu23=(S.g - S.c) / (S.c + S.g),
+        E1=E1, E2=E2, E3=E2, G12=G12, G13=G12, G23=0.5 / S.g,
+        nu12=nu12, nu13=nu12, nu23=(S.g - S.c) / tr,
         alpha1=None if alpha is None else alpha[0],
         alpha2=None if alpha is None else alpha[1],
         alpha3=None if alpha is None else alpha[1],

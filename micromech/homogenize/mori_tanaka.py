@@ -196,15 +196,33 @@ def mori_tanaka(
     A1 = W.inv(W.add(W.identity(), W.dot(P, W.sub(C1, C0))))
     B1 = W.dot(C1, A1)
 
-    num = W.add(W.scale(C0, c0), W.scale(B1, c1))
-    den = W.TI(c0 + c1 * A1.c, c0 + c1 * A1.d, c1 * A1.e, c1 * A1.f, c0 + c1 * A1.g,
-               c0 + c1 * A1.h)
     if has_voids:
+        num = W.add(W.scale(C0, c0), W.scale(B1, c1))
+        den = W.TI(c0 + c1 * A1.c, c0 + c1 * A1.d, c1 * A1.e, c1 * A1.f, c0 + c1 * A1.g,
+                   c0 + c1 * A1.h)
         Pv = polarization(K0, G0, 1.0)
         Av = W.inv(W.sub(W.identity(), W.dot(Pv, C0)))
         den = W.add(den, W.scale(Av, cv))
-    S = W.dot(den, W.inv(num))  # compliance: (c0 I + c1 A1) : (c0 C0 + c1 C1 A1)^-1
-    C = W.inv(S)
+    else:
+        # c0 = 1 - c1: num = C0 + c1 (C1 A1 - C0), den = I + c1 (A1 - I); the differences are
+        # per phase, so each component costs one multiply-add over the fractions
+        dB = W.sub(B1, C0)
+        dA = W.sub(A1, W.identity())
+        num = W.TI(*(x + c1 * y for x, y in zip(C0, dB, strict=True)))
+        den = W.TI(1.0 + c1 * dA.c, 1.0 + c1 * dA.d, c1 * dA.e, c1 * dA.f, 1.0 + c1 * dA.g,
+                   1.0 + c1 * dA.h)
+    # compliance S = den : num^-1 = (c0 I + c1 A1) : (c0 C0 + c1 C1 A1)^-1, with the 2x2 block
+    # inverse written out (adjugate over determinant)
+    det = num.c * num.d - num.e * num.f
+    S = W.TI(
+        (den.c * num.d - den.e * num.f) / det,
+        (den.d * num.c - den.f * num.e) / det,
+        (den.e * num.c - den.c * num.e) / det,
+        (den.f * num.d - den.d * num.f) / det,
+        den.g / num.g,
+        den.h / num.h,
+    )
+    del num, den, det
 
     alpha = None
     if cm.has_cte(f, m) and not has_voids:
@@ -212,8 +230,8 @@ def mori_tanaka(
             S, W.inv(C1), W.inv(C0), c1, f.alpha1, f.alpha2, m.alpha, m.alpha,  # type: ignore[arg-type]
         )
     if orientation == "aligned":
-        return cm.ti_result(C, model="mori_tanaka", source=SOURCE, alpha=alpha, S=S)
-    return _random_result(C, orientation, alpha)
+        return cm.ti_result(None, model="mori_tanaka", source=SOURCE, alpha=alpha, S=S)
+    return _random_result(W.inv(S), orientation, alpha)
 
 
 def _random_result(

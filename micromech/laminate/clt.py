@@ -17,6 +17,7 @@ References
 .. [1] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., CRC Press: Eq. (2.93)
    (reduced stiffness), Eqs. (2.94)-(2.104) (transformation, Q-bar), Eqs. (4.28)-(4.29) (ABD),
    Sec. 4.5 (laminate engineering constants), Sec. 4.6 (hygrothermal loads).
+   Equation and section numbers are cited from memory; check them against the edition at hand.
 .. [2] Jones, R. M. (1999). *Mechanics of Composite Materials*, 2nd ed., Taylor & Francis,
    Ch. 4 (classical lamination theory).
 """
@@ -25,7 +26,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -34,6 +35,9 @@ from micromech.errors import InputError
 from micromech.laminate.layup import parse_layup
 from micromech.laminate.ply import Ply, PlyMaterial
 from micromech.units import parse_quantity
+
+if TYPE_CHECKING:  # pragma: no cover
+    from micromech.laminate.stack import StackResult
 
 __all__ = [
     "POINTS",
@@ -91,7 +95,7 @@ def reduced_stiffness(E1: ArrayLike, E2: ArrayLike, nu12: ArrayLike, G12: ArrayL
 
     References
     ----------
-    Kaw (2006), Eq. (2.93); Jones (1999), Eq. (2.61).
+    Kaw (2006), Eq. (2.93); Jones (1999), Sec. 2.6.
 
     Examples
     --------
@@ -183,7 +187,7 @@ def transformed_reduced_stiffness(Q: ArrayLike, angle: ArrayLike) -> Array:
 
     References
     ----------
-    Kaw (2006), Eqs. (2.103)-(2.104); Jones (1999), Eq. (2.84).
+    Kaw (2006), Eqs. (2.103)-(2.104); Jones (1999), Sec. 2.6.
 
     Examples
     --------
@@ -243,7 +247,7 @@ def abd_matrices(Qbar: ArrayLike, z: ArrayLike) -> tuple[Array, Array, Array]:
 
     References
     ----------
-    Kaw (2006), Eqs. (4.28)-(4.29); Jones (1999), Eq. (4.23).
+    Kaw (2006), Eqs. (4.28)-(4.29); Jones (1999), Sec. 4.2.
     """
     Qbar, z = _f(Qbar), _f(z)
     z0, z1 = z[..., :-1], z[..., 1:]
@@ -762,7 +766,7 @@ class Laminate:
 
         References
         ----------
-        Kaw (2006), Eqs. (4.16), (4.31) and Sec. 4.6; Jones (1999), Eq. (4.24).
+        Kaw (2006), Eqs. (4.16), (4.31) and Sec. 4.6; Jones (1999), Sec. 4.2.
         """
         vec, dT = load_vector(loads)
         if delta_T is not None:
@@ -796,7 +800,7 @@ class Laminate:
         C = np.stack([p.material.stiffness() for p in self.plies])
         return tensors.rotate_stiffness(C, tensors.rotation_about_axis(3, self.angles))
 
-    def stack_constants(self) -> Any:
+    def stack_constants(self) -> StackResult:
         """3D effective constants of the periodic stack of these plies (see ``stack_constants``).
 
         Returns

@@ -11,7 +11,7 @@ References
 ----------
 .. [1] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., CRC Press, Sec. 5.3.
 .. [2] Daniel, I. M., Ishai, O. (2006). *Engineering Mechanics of Composite Materials*, 2nd ed.,
-   Sec. 12.3 (first-ply failure envelopes).
+   Sec. 12.3 (first-ply failure envelopes). Section numbers from memory.
 """
 
 from __future__ import annotations

@@ -34,7 +34,7 @@ References
    Applied Mechanics* 47, 329-334 (fibre and matrix modes; plane-stress forms of Eqs. (23)-(26),
    equation numbers from memory).
 .. [6] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., Sec. 2.9 (strength
-   ratio).
+   ratio). Section numbers are cited from memory; check them against the edition at hand.
 """
 
 from __future__ import annotations
@@ -172,7 +172,7 @@ def _first_reach(a: Array, b: Array, c: Array, lo: Array, hi: Array) -> Array:
     astronomically large load) count as never reached.
     """
     empty = ~(lo <= hi) | (lo > 1e100)
-    lo_f = np.where(np.isfinite(lo), lo, 0.0)
+    lo_f = np.where(empty, 0.0, lo)
     F_lo = a * lo_f**2 + b * lo_f + c
     d = 1.0 - F_lo
     bp = 2.0 * a * lo_f + b
@@ -327,7 +327,7 @@ def tsai_hill(
 
     References
     ----------
-    Azzi and Tsai (1965); Jones (1999), Eq. (2.147); Kaw (2006), Sec. 2.9.3.
+    Azzi and Tsai (1965); Jones (1999), Sec. 2.9; Kaw (2006), Sec. 2.9.3.
     """
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "tsai_hill")
     sM, sT = _stresses(stress, thermal)
@@ -381,7 +381,7 @@ def tsai_wu(
 
     References
     ----------
-    Tsai and Wu (1971), Eq. (1); Tsai and Hahn (1980), Sec. 7.3; Kaw (2006), Sec. 2.9.4.
+    Tsai and Wu (1971); Tsai and Hahn (1980), Sec. 7.3; Kaw (2006), Sec. 2.9.4.
     """
     if not -1.0 < float(f12_star) < 1.0:
         raise InputError(

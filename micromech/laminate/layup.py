@@ -27,7 +27,7 @@ References
 .. [1] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., CRC Press, Sec. 4.2
    (laminate code).
 .. [2] Daniel, I. M., Ishai, O. (2006). *Engineering Mechanics of Composite Materials*, 2nd ed.,
-   Oxford University Press, Sec. 7.2 (laminate notation).
+   Oxford University Press, Sec. 7.2 (laminate notation). Section numbers from memory.
 """
 
 from __future__ import annotations

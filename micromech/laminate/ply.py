@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass, field, fields
+from dataclasses import dataclass, fields
 from typing import Any
 
 import numpy as np
@@ -198,7 +198,7 @@ class PlyMaterial:
 
     References
     ----------
-    Jones (1999), Eqs. (2.47)-(2.50) (restrictions on the engineering constants).
+    Jones (1999), Sec. 2.4 (restrictions on the engineering constants).
 
     Examples
     --------
@@ -222,7 +222,6 @@ class PlyMaterial:
     strengths: PlyStrengths | None = None
     name: str = ""
     source: str = ""
-    extra: dict[str, Any] = field(default_factory=dict, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         label = f"ply material {self.name!r}" if self.name else "ply material"
@@ -409,7 +408,7 @@ class PlyMaterial:
 
         References
         ----------
-        Kaw (2006), Eq. (2.93); Jones (1999), Eq. (2.61).
+        Kaw (2006), Eq. (2.93) (from memory); Jones (1999), Sec. 2.6.
         """
         from micromech.laminate.clt import reduced_stiffness
 

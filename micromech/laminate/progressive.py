@@ -24,7 +24,7 @@ References
 .. [1] Kaw, A. K. (2006). *Mechanics of Composite Materials*, 2nd ed., CRC Press, Sec. 5.3
    (first-ply and last-ply failure, ply-discount method).
 .. [2] Daniel, I. M., Ishai, O. (2006). *Engineering Mechanics of Composite Materials*, 2nd ed.,
-   Sec. 12.4 (progressive failure of laminates).
+   Sec. 12.4 (progressive failure of laminates). Section numbers from memory.
 """
 
 from __future__ import annotations

@@ -70,7 +70,7 @@ def plane_stress_reduce(C: ArrayLike) -> Array:
 
     References
     ----------
-    Jones (1999), Sec. 2.5 (plane stress); Sun and Li (1988), Eq. (6).
+    Jones (1999), Sec. 2.5 (plane stress); Sun and Li (1988).
     """
     Cpp, Cpq, Cqp, Cqq = _blocks(np.asarray(C, dtype=np.float64))
     return np.asarray(Cpp - Cpq @ np.linalg.solve(Cqq, Cqp), dtype=np.float64)
@@ -142,7 +142,7 @@ def stack_constants(
 
     References
     ----------
-    Pagano (1974); Sun and Li (1988), Eqs. (8)-(14).
+    Pagano (1974); Sun and Li (1988) (the mixed-form averaging above).
 
     Examples
     --------

@@ -39,6 +39,10 @@ __all__ = [
     "write_check_report",
 ]
 
+#: Short labels of the estimates in the charts (explained in the caption).
+SHORT_LABELS = {"mori_tanaka": "MT", "halpin_tsai": "HT", "cylinders": "CCA",
+                "hashin_shtrikman_lower": "HS-", "hashin_shtrikman_upper": "HS+",
+                "rule_of_mixtures": "RoM", "chamis": "Chamis"}
 _VERDICT_COLOUR = {"consistent": "#1a7f37", "suspect": "#bf8700", "violates_bounds": "#cf222e"}
 _HEADERS = ["property", "simulated", "lower bound", "upper bound", "best estimate",
             "expected band", "verdict"]
@@ -113,8 +117,10 @@ def _text_table(headers: Sequence[str], rows: Sequence[Sequence[str]]) -> str:
 
 
 def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 100) -> str:
-    """Terminal report: verdict table, the reasons of every property that is not consistent,
-    the curve metrics, notes and the caution.
+    """Format the terminal report: verdicts, reasons of the problems, curves, caution.
+
+    The reasons are listed for every property that is not consistent (all with
+    ``all_reasons``), followed by the curve metrics, the notes and the caution.
 
     Parameters
     ----------
@@ -162,7 +168,7 @@ def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 10
 def _figure(width: float, height: float) -> Any:
     from matplotlib.figure import Figure
 
-    return Figure(figsize=(width, height), layout="constrained")
+    return Figure(figsize=(width, height))
 
 
 def _draw_curve(ax: Any, curve: Any) -> None:
@@ -211,6 +217,7 @@ def _draw_property(ax: Any, prop: Any) -> None:
     positive = [v for v in known if v > 0]
     if len(positive) == len(known) and positive and max(positive) / min(positive) > 20.0:
         ax.set_xscale("log")
+        ax.minorticks_off()
 
     def bar(lo: float | None, hi: float | None, h: float, colour: str, label: str) -> None:
         if lo is None or hi is None:
@@ -219,7 +226,7 @@ def _draw_property(ax: Any, prop: Any) -> None:
                 label=label)
 
     bar(prop.lower_bound, prop.upper_bound, 0.9, "0.75", "rigorous bounds")
-    for b, side in ((prop.lower_bound, "lower"), (prop.upper_bound, "upper")):
+    for b in (prop.lower_bound, prop.upper_bound):
         if b is not None:
             ax.plot([b / scale] * 2, [-0.45, 0.45], color="0.4", lw=2)
     if prop.hs_band:
@@ -228,8 +235,9 @@ def _draw_property(ax: Any, prop: Any) -> None:
         bar(prop.band[0], prop.band[1], 0.35, "#2da44e", "expected band")
     for k, v in sorted(prop.estimates.items(), key=lambda kv: kv[1]):
         ax.plot([v / scale] * 2, [-0.3, 0.3], color="#57606a", lw=1)
-        ax.annotate(_label(k).replace("stack of ", "").replace(" plies", ""), (v / scale, 0.32),
-                    rotation=35, fontsize=5.5, ha="left", va="bottom", color="#57606a")
+        short = SHORT_LABELS.get(k.removeprefix("stack_"), k)
+        ax.annotate(short, (v / scale, 0.32), rotation=45, fontsize=6, ha="left",
+                    va="bottom", color="#57606a")
     colour = _VERDICT_COLOUR.get(prop.verdict, "k")
     ax.plot([prop.value / scale], [0.0], "D", color=colour, ms=8, label="simulated")
     ax.set_yticks([])
@@ -259,6 +267,8 @@ def curves_figure(result: Any) -> Any:
     fig = _figure(4.2 * cols, 3.4 * rows)
     for i, c in enumerate(result.curves.values()):
         _draw_curve(fig.add_subplot(rows, cols, i + 1), c)
+    fig.subplots_adjust(left=0.07, right=0.98, bottom=0.14 / rows, top=1 - 0.08 / rows,
+                        wspace=0.28, hspace=0.35)
     return fig
 
 
@@ -286,9 +296,20 @@ def properties_figure(result: Any) -> Any:
     for ax in axes:
         for h, lab in zip(*ax.get_legend_handles_labels(), strict=True):
             handles.setdefault(lab, h)
-    fig.legend(list(handles.values()), list(handles), loc="outside lower center",
+    height = 1.55 * rows + 0.5
+    fig.legend(list(handles.values()), list(handles), loc="lower center",
                ncol=len(handles), fontsize=7)
+    fig.subplots_adjust(left=0.03, right=0.98, bottom=0.75 / height, top=1 - 0.25 / height,
+                        wspace=0.08, hspace=1.25)
     return fig
+
+
+_CHART_CAPTION = (
+    "Light grey: rigorous bounds; darker grey: Hashin-Shtrikman band; green: expected band; "
+    "ticks: estimates (MT Mori-Tanaka, HT Halpin-Tsai, CCA composite cylinders, HS-/HS+ "
+    "Hashin-Shtrikman lower/upper, RoM rule of mixtures; for stacks: stacks of such plies); "
+    "diamond: the simulated value, coloured by its verdict."
+)
 
 
 def _figures(result: Any) -> dict[str, tuple[str, bytes]]:
@@ -348,7 +369,8 @@ def render_markdown(result: Any, images: Mapping[str, str] | None = None) -> str
             out.append(f"![stress-strain curves]({images['curves']})\n")
     if "properties" in images:
         out += ["## Properties against bounds and estimates\n",
-                f"![bounds, estimates and simulated values]({images['properties']})\n"]
+                f"![bounds, estimates and simulated values]({images['properties']})\n",
+                f"{_CHART_CAPTION}\n"]
     if result.notes:
         out += ["## Notes\n", *[f"- {n}" for n in result.notes], ""]
     out.append(caution)
@@ -391,8 +413,7 @@ def render_html(result: Any, images: Mapping[str, bytes] | None = None) -> str:
     if "properties" in images:
         body += ["<h2>Properties against bounds and estimates</h2>",
                  image_tag(images["properties"], "bounds, estimates and simulated values",
-                           "Grey: rigorous bounds; darker: Hashin-Shtrikman band; green: "
-                           "expected band; ticks: estimates; diamond: simulated value.")]
+                           _CHART_CAPTION)]
     if result.notes:
         body += ["<h2>Notes</h2>",
                  "<ul>" + "".join(f"<li>{escape(n)}</li>" for n in result.notes) + "</ul>"]

@@ -177,7 +177,7 @@ def _draw_sweep(ax: Any, sweep: Sweep, target: Any = None) -> None:
     xl = {"volume_fraction": "fibre volume fraction [%]", "angle": "fibre angle [deg]",
           "ply_share": "share of 0-degree plies [%]"}.get(sweep.variable, sweep.variable)
     ax.set_xlabel(xl)
-    ax.set_ylabel(f"{sweep.property} [{unit}]" if unit else sweep.property)
+    ax.set_ylabel(f"{sweep.name} [{unit}]" if unit else sweep.name)
     ax.grid(alpha=0.3)
     ax.legend(fontsize=7, loc="best")
 

@@ -187,6 +187,5 @@ def figure_png(fig: Any, dpi: int = 100) -> bytes:
         The PNG.
     """
     buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=dpi, bbox_inches="tight",
-                metadata={"Software": None})
+    fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
     return buf.getvalue()

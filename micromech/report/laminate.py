@@ -24,7 +24,7 @@ CAUTION = (
 )
 
 _LOAD_UNITS = {"Nx": ("N/mm", 1e-3), "Ny": ("N/mm", 1e-3), "Nxy": ("N/mm", 1e-3),
-               "Mx": ("N*mm/mm", 1e3), "My": ("N*mm/mm", 1e3), "Mxy": ("N*mm/mm", 1e3)}
+               "Mx": ("N*mm/mm", 1.0), "My": ("N*mm/mm", 1.0), "Mxy": ("N*mm/mm", 1.0)}
 
 
 def _num(x: Any) -> float | None:
@@ -92,9 +92,10 @@ def laminate_json(
     Returns
     -------
     dict
-        Keys case, layup, angles, thickness, A, B, D, in_plane, flexural, stack_3d, loads,
-        criterion, plies, critical_plies, first_ply_failure, last_ply_failure, (envelopes),
-        notes, caution.
+        Keys case, layup, angles, thickness, A, B, D, in_plane (free to bend, from ABD^-1),
+        in_plane_restrained (from A^-1, as in a periodic stack), flexural, stack_3d,
+        thermal_expansion, loads, criterion, f12_star, plies, critical_plies,
+        first_ply_failure, last_ply_failure, (envelopes), notes, caution.
     """
     lam = analysis.laminate
     plies: list[dict[str, Any]] = []
@@ -147,6 +148,7 @@ def laminate_json(
         "thickness": lam.thickness,
         "A": _matrix(A), "B": _matrix(B), "D": _matrix(D),
         "in_plane": analysis.in_plane.as_dict(),
+        "in_plane_restrained": lam.in_plane_constants("restrained").as_dict(),
         "flexural": analysis.flexural.as_dict(),
         "stack_3d": analysis.stack.as_dict() if analysis.stack is not None else None,
         "thermal_expansion": (
@@ -225,7 +227,12 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
     out.append("")
     out.append(f"{'constants':<22}{'Ex (GPa)':>10}{'Ey (GPa)':>10}{'Gxy (GPa)':>11}"
                f"{'nuxy':>8}{'nuyx':>8}")
-    for label, c in (("in-plane", analysis.in_plane), ("flexural", analysis.flexural)):
+    rows = [("in-plane (free)", analysis.in_plane)]
+    restrained = lam.in_plane_constants("restrained")
+    if not np.isclose(restrained.Ex, analysis.in_plane.Ex, rtol=1e-9):
+        rows.append(("in-plane (restrained)", restrained))
+    rows.append(("flexural (free)", analysis.flexural))
+    for label, c in rows:
         out.append(f"{label:<22}{c.Ex / 1e9:>10.4g}{c.Ey / 1e9:>10.4g}{c.Gxy / 1e9:>11.4g}"
                    f"{c.nuxy:>8.4f}{c.nuyx:>8.4f}")
     if analysis.stack is not None:

@@ -61,7 +61,14 @@ from micromech.rve.causes import (
     property_kind,
     size_error_reason,
 )
-from micromech.rve.tolerances import Band, fibre_band, parse_tolerances, particle_band, ud_base_name
+from micromech.rve.tolerances import (
+    Band,
+    corner_plies,
+    fibre_band,
+    parse_tolerances,
+    particle_band,
+    ud_base_name,
+)
 from micromech.rve.verdicts import (
     CAUTION,
     VERDICTS,
@@ -76,6 +83,7 @@ __all__ = [
     "CheckResult",
     "CurveResult",
     "Diagnosis",
+    "Expectation",
     "PropertyCheck",
     "check_case",
     "consistency_reasons",
@@ -276,10 +284,6 @@ def _stack(ply: ElasticConstants, angles: Sequence[float]) -> Any:
     return stack_constants(layers, np.full(n, 1.0 / n), angles=np.asarray(angles))
 
 
-def _ti_ply(E1: Any, E2: Any, nu12: Any, G12: Any, nu23: Any) -> ElasticConstants:
-    return ElasticConstants.transversely_isotropic(E1, E2, nu12, G12, nu23=nu23)
-
-
 def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectation]:
     """Bounds, estimates, bands and diagnosis data for the named properties of a case.
 
@@ -318,7 +322,8 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
     grid = np.linspace(0.0, top, _GRID_POINTS)
     mt_grid = mori_tanaka(comp.fibre, comp.matrix, grid, comp.inclusion, comp.aspect_ratio,
                           void_fraction=comp.void_fraction)
-    hs_ok = comp.arrangement in ("random", "hexagonal")
+    hs_ok = comp.arrangement == "random" or (
+        comp.arrangement == "hexagonal" and comp.inclusion == "continuous")
     if stack:
         models = {f"stack_{k}": _stack(v, angles) for k, v in _plies(est).items()}
         consts = {k: r.constants for k, r in models.items()}
@@ -380,23 +385,8 @@ def _stack_bands(
 ) -> dict[str, Band]:
     """Bands of stack properties: stacks of plies at the ends of their expected bands."""
     plies = _plies(est)
-    mt = plies["mori_tanaka"]
-    ht = plies.get("halpin_tsai")
-    ends: dict[str, tuple[Array, Array]] = {}
-    for n in ("E1", "E2", "nu12", "G12", "nu23"):
-        b = fibre_band(n, mt.get(n), vf, arrangement,  # type: ignore[arg-type]
-                       halpin_tsai=None if ht is None else ht.get(n))
-        ends[n] = (b.low, b.high)
-    lo, hi = (lambda n: ends[n][0]), (lambda n: ends[n][1])
-    corners = [
-        _ti_ply(hi("E1"), hi("E2"), lo("nu12"), hi("G12"), lo("nu23")),
-        _ti_ply(lo("E1"), lo("E2"), hi("nu12"), lo("G12"), hi("nu23")),
-        _ti_ply(hi("E1"), hi("E2"), hi("nu12"), hi("G12"), hi("nu23")),
-        _ti_ply(lo("E1"), lo("E2"), lo("nu12"), lo("G12"), lo("nu23")),
-        mt,
-    ]
-    if ht is not None:
-        corners.append(ht)
+    corners = corner_plies(plies["mori_tanaka"], vf, arrangement,
+                           halpin_tsai=plies.get("halpin_tsai"))
     stacks = [_stack(c, angles).constants for c in corners]
     basis = (f"stacks of plies at the ends of their expected bands (measured spread of "
              f"Mori-Tanaka against full-field results, {arrangement} arrangement, and "
@@ -526,7 +516,7 @@ def _gauge(direction: str, size: Sequence[float]) -> tuple[float, float]:
 def _read_curve(lc: Any, size: Sequence[float] | None) -> Any:
     from micromech.rve.ingest import Curve, read_table
 
-    table = read_table(lc.file, delimiter=lc.delimiter)
+    table = read_table(lc.file, delimiter=lc.delimiter, skip_rows=lc.skip_rows)
     label = str(lc.file)
     lateral: dict[str, Array] = {}
     if lc.mode == "force_displacement":
@@ -798,5 +788,5 @@ def _cross_checks(
                     at = len(r.reasons) if not causes else causes[0]
                     if causes and "A unit slip" in r.reasons[at]:
                         at += 1
-                    reasons = (*r.reasons[:at], f"Across load cases: {text}", *r.reasons[at:])
-                    results[n] = replace(r, reasons=reasons)
+                    new = (*r.reasons[:at], f"Across load cases: {text}", *r.reasons[at:])
+                    results[n] = replace(r, reasons=new)

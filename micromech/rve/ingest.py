@@ -351,8 +351,7 @@ def read_table(
     )
 
 
-_SPACE = np.zeros(256, dtype=bool)
-_SPACE[[9, 10, 11, 12, 13, 28, 29, 30, 31, 32]] = True  # str.isspace() of the ASCII bytes
+_MAX_LEAD = 64  # leading blanks scanned per line before the line-by-line reader takes over
 
 
 def _read_ascii(
@@ -360,29 +359,35 @@ def _read_ascii(
 ) -> tuple[tuple[str, ...], int | None, Array, NDArray[np.int64], str] | None:
     """Read a regular ASCII file with vectorised line scans; None to use the line-by-line path.
 
-    Classifies every line (blank, comment, data) and counts its cells with prefix sums over
-    the bytes, then parses all numbers in one call. Anything irregular (a ragged row, a cell
-    that is not a number, fewer than 3 rows) returns None, and the line-by-line reader then
-    finds and reports it, so both paths accept and reject exactly the same files.
+    Classifies every line (blank, comment, data) and counts its cells from the byte positions
+    of line breaks and delimiters, then parses all numbers in one call. Anything irregular (a
+    control character, a ragged row, a cell that is not a number, fewer than 3 rows) returns
+    None, and the line-by-line reader then finds and reports it, so both paths accept and
+    reject exactly the same files.
     """
     if b"\r" in raw:
         raw = raw.replace(b"\r\n", b"\n").replace(b"\r", b"\n")
     a = np.frombuffer(raw, dtype=np.uint8)
-    if a.size == 0:
+    if a.size == 0 or np.any((a < 9) | ((a > 13) & (a < 28))):
         return None
+    # from here on, a byte <= 32 is exactly a character for which str.isspace() holds
     nl = np.flatnonzero(a == 10)
     starts = np.concatenate(([0], nl + 1))
     ends = np.concatenate((nl, [a.size]))
-    space = _SPACE[a]
-    solid = np.flatnonzero(~space)
-    if solid.size == 0:
+    lead = starts.copy()  # first non-blank character of each line (or its end)
+    for _ in range(_MAX_LEAD):
+        open_ = lead < ends
+        step = np.zeros(lead.size, dtype=bool)
+        step[open_] = a[lead[open_]] <= 32
+        if not step.any():
+            break
+        lead[step] += 1
+    else:
         return None
-    k = np.searchsorted(solid, starts)
-    first_solid = np.where(k < solid.size, solid[np.minimum(k, solid.size - 1)], a.size)
-    blank = first_solid >= ends
-    lead = a[np.minimum(first_solid, a.size - 1)]
+    blank = lead >= ends
+    first_char = a[np.minimum(lead, a.size - 1)]
     marks = np.frombuffer(comment.encode("ascii", "ignore"), dtype=np.uint8)
-    keep = ~blank & ~np.isin(lead, marks)
+    keep = ~blank & ~np.isin(first_char, marks)
     keep[:skip_rows] = False
     kept = np.flatnonzero(keep)
     if kept.size == 0:
@@ -401,13 +406,16 @@ def _read_ascii(
     if rows.size < _MIN_ROWS:
         return None
     if d == " ":
-        cells = ~space & np.concatenate(([True], space[:-1]))  # starts of blank-separated cells
+        space = a <= 32
+        marks_at = np.flatnonzero(~space[1:] & space[:-1]) + 1  # starts of blank-separated cells
+        if a[0] > 32:
+            marks_at = np.concatenate(([0], marks_at))
         want = n_cols
     else:
-        cells = a == ord(d)
+        marks_at = np.flatnonzero(a == ord(d))
         want = n_cols - 1
-    prefix = np.concatenate(([0], np.cumsum(cells, dtype=np.int64)))
-    if np.any(prefix[ends[rows]] - prefix[starts[rows]] != want):
+    counts = np.searchsorted(marks_at, ends[rows]) - np.searchsorted(marks_at, starts[rows])
+    if np.any(counts != want):
         return None
     if np.all(np.diff(rows) == 1):
         body = raw[starts[rows[0]] : ends[rows[-1]]]

@@ -38,6 +38,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
+from micromech.results import ElasticConstants
 
 __all__ = [
     "BOUND_SLACK",
@@ -47,6 +48,7 @@ __all__ = [
     "PROPERTY_NAMES",
     "Band",
     "band_about",
+    "corner_plies",
     "fibre_band",
     "particle_band",
     "parse_tolerances",
@@ -258,6 +260,55 @@ def _factors(base: str, v: Array, arrangement: str) -> tuple[Array, Array]:
         lo_f = np.minimum(lo_f, np.minimum(1.0, 1.0 / (1.0 + e_hi)))
         hi_f = np.maximum(hi_f, np.maximum(1.0, 1.0 / (1.0 + e_lo)))
     return lo_f, hi_f
+
+
+def corner_plies(
+    mori_tanaka: ElasticConstants,
+    vf: ArrayLike,
+    arrangement: str = "random",
+    *,
+    halpin_tsai: ElasticConstants | None = None,
+) -> list[ElasticConstants]:
+    """Plies at the ends of their expected bands, to carry the bands through a stack.
+
+    Each ply constant (E1, E2, nu12, G12, nu23) takes the low or the high end of its band
+    (:func:`fibre_band`). The full-field results are stiffer transversely and have a lower nu23
+    than Mori-Tanaka, so the stiff corner pairs high moduli with low Poisson ratios and the soft
+    corner the reverse; two mixed corners take all ends alike. Mori-Tanaka and, where given,
+    Halpin-Tsai plies are added. The band of a stack property is the range of the stacks of
+    these plies.
+
+    Parameters
+    ----------
+    mori_tanaka : ElasticConstants
+        Mori-Tanaka ply (E1, E2, nu12, G12, nu23 needed), shape ().
+    vf : array_like
+        Fibre volume fraction.
+    arrangement : str
+        Fibre arrangement.
+    halpin_tsai : ElasticConstants, optional
+        A complete Halpin-Tsai ply (its E2 also widens the E2 band).
+
+    Returns
+    -------
+    list of ElasticConstants
+        Transversely isotropic plies.
+    """
+    ends: dict[str, tuple[Array, Array]] = {}
+    for n in ("E1", "E2", "nu12", "G12", "nu23"):
+        b = fibre_band(n, mori_tanaka.get(n), vf, arrangement,  # type: ignore[arg-type]
+                       halpin_tsai=None if halpin_tsai is None else halpin_tsai.get(n))
+        ends[n] = (b.low, b.high)
+
+    def ply(moduli: int, poisson: int) -> ElasticConstants:
+        return ElasticConstants.transversely_isotropic(
+            ends["E1"][moduli], ends["E2"][moduli], ends["nu12"][poisson], ends["G12"][moduli],
+            nu23=ends["nu23"][poisson], model="band corner")
+
+    out = [ply(1, 0), ply(0, 1), ply(1, 1), ply(0, 0), mori_tanaka]
+    if halpin_tsai is not None:
+        out.append(halpin_tsai)
+    return out
 
 
 def particle_band(best: ArrayLike, inclusion: str = "sphere") -> Band:

@@ -58,7 +58,8 @@ def test_percentiles_of_a_normal_output_converge_to_the_normal_quantiles():
 def test_lognormal_input_keeps_its_mean_and_cov_and_the_sign_of_a_negative_mean():
     n = 100_000
     r = propagate(lambda s: {"a": s["a"], "b": s["b"]},
-                    {"a": Uncertain(2.0, 0.3, "lognormal"), "b": Uncertain(-5e-7, 0.1, "lognormal")},
+                    {"a": Uncertain(2.0, 0.3, "lognormal"),
+                     "b": Uncertain(-5e-7, 0.1, "lognormal")},
                     n, seed=3)
     # lognormal moments (Johnson, Kotz and Balakrishnan 1994, Ch. 14): mean 2, std 0.6
     assert abs(r["a"].mean - 2.0) < 4 * 0.6 / math.sqrt(n)

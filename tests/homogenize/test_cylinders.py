@@ -12,7 +12,7 @@ def test_e1_exceeds_the_rule_of_mixtures_by_the_poisson_mismatch_term(carbon, ep
     kf, km, Gm = float(carbon.k23), float(epoxy.k23), float(epoxy.G)
     term = 4 * VF * (1 - VF) * (0.2 - 0.35) ** 2 / (VF / km + (1 - VF) / kf + 1 / Gm)
     assert np.allclose(r.E1 - rom.E1, term, rtol=1e-9, atol=1e-3)
-    assert np.all(r.E1 >= rom.E1)
+    assert np.all(r.E1 >= rom.E1 * (1 - 1e-14))
 
 
 def test_equal_poisson_ratios_give_the_rule_of_mixtures():

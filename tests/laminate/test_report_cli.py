@@ -125,3 +125,15 @@ def test_malformed_layup_exits_with_status_2_and_names_the_position(case_file):
 def test_unknown_envelope_axis_exits_with_status_2(case_file):
     result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--envelope", "Nx,Q"])
     assert result.exit_code == 2 and "envelope axis 'Q'" in result.output
+
+
+def test_table_of_unsymmetric_laminate_shows_moment_units_and_restrained_constants(
+        graphite_epoxy):
+    lam = Laminate.from_code("[0/90]", graphite_epoxy, 0.25e-3)
+    text = laminate_table(analyse_laminate(lam, {"Mx": "5 N*mm/mm"}))
+    assert "Loads: Mx = 5 N*mm/mm" in text  # a moment per length has units of force
+    assert "in-plane (restrained)" in text
+    d = laminate_json(analyse_laminate(lam, {"Mx": 5.0}))
+    stack = lam.stack_constants().as_dict()
+    assert d["in_plane_restrained"]["Ex"] == pytest.approx(stack["Ex"], rel=1e-9)
+    assert d["in_plane"]["Ex"] < d["in_plane_restrained"]["Ex"]  # free to bend: softer

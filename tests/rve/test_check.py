@@ -246,3 +246,74 @@ def test_poisson_with_load_axis_as_lateral_raises():
 def test_unknown_tolerance_name_raises():
     with pytest.raises(InputError, match="unknown property 'E22'"):
         check_case(DEMO / "crossply.toml", tolerances=["E22=0.1"])
+
+
+# --- particulate, averaged load cases, [check] filters ---------------------------------------
+
+def test_particulate_spheres_at_mori_tanaka_are_consistent_with_hs_band():
+    base = {"fibre": {"use": "glass-beads"}, "matrix": {"use": "epoxy"},
+            "composite": {"volume_fraction": 0.3, "inclusion": "sphere"}}
+    C = estimate(case_from_dict(base).composite, strengths=False)["mori_tanaka"].stiffness()
+    data = {**base, "rve": {"architecture": "particulate",
+                            "stiffness": {"matrix": (C / 1e9).tolist(), "unit": "GPa"}}}
+    r = check_case(case_from_dict(data))
+    assert r.worst_verdict == "consistent"
+    e1 = r.properties["E1"]
+    assert e1.hs_band is not None and e1.hs_band[0] <= e1.value * 1.001
+    assert "not measured" in e1.reasons[0]  # flat band for particles
+
+
+def test_averaged_load_cases_give_the_full_stiffness():
+    C = mt_stiffness_gpa() * 1e9
+    eps = 1e-3 * np.eye(6)
+    cases = [{"stress": (C @ e / 1e6).tolist(), "strain": e.tolist(), "stress_unit": "MPa"}
+             for e in eps]
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional", "load_case": cases}}
+    r = check_case(case_from_dict(data))
+    assert r.worst_verdict == "consistent"
+    assert r.properties["G23"].value == pytest.approx(C[3, 3], rel=1e-9)
+    assert r.curves == {}
+
+
+def test_check_table_limits_properties_and_models():
+    r = check_case(ud_case(mt_stiffness_gpa(),
+                           check={"properties": ["E1", "E2"], "models": ["halpin_tsai"]}))
+    assert set(r.properties) == {"E1", "E2"}
+    assert set(r.properties["E2"].estimates) == {"mori_tanaka", "halpin_tsai"}
+
+
+def test_percent_strains_read_as_plain_numbers_are_diagnosed(tmp_path):
+    # invented history: E1 of the Mori-Tanaka estimate, strain written in percent
+    e1 = float(estimate(case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.55}})
+                        .composite, strengths=False)["mori_tanaka"].E1)
+    strain = np.linspace(0.0, 0.01, 60)
+    rows = "\n".join(f"{100 * e:.8g},{e1 * e / 1e6:.8g}" for e in strain)
+    (tmp_path / "ud_x.csv").write_text("# invented example\nstrain_pct,stress_mpa\n" + rows)
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional",
+                    "load_case": [{"direction": "x", "file": "ud_x.csv",
+                                   "stress": {"column": "stress_mpa", "unit": "MPa"},
+                                   "strain": {"column": "strain_pct", "unit": "1"}}]}}
+    r = check_case(case_from_dict(data, path=tmp_path / "ud.toml"))
+    e = r.properties["E1"]
+    assert e.verdict == "violates_bounds"
+    assert "percent" in e.reasons[1]
+    data["rve"]["load_case"][0]["strain"]["unit"] = "%"
+    fixed = check_case(case_from_dict(data, path=tmp_path / "ud.toml"))
+    assert fixed.properties["E1"].verdict == "consistent"
+
+
+def test_skip_rows_of_a_load_case_are_honoured(tmp_path):
+    e1 = float(estimate(case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.55}})
+                        .composite, strengths=False)["mori_tanaka"].E1)
+    strain = np.linspace(0.0, 0.01, 40)
+    rows = "\n".join(f"{e:.8g},{e1 * e / 1e6:.8g}" for e in strain)
+    (tmp_path / "h.csv").write_text("solver preamble line\nmore preamble\nstrain,stress\n" + rows)
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional",
+                    "load_case": [{"direction": "x", "file": "h.csv", "skip_rows": 2,
+                                   "stress": {"column": "stress", "unit": "MPa"},
+                                   "strain": {"column": "strain"}}]}}
+    r = check_case(case_from_dict(data, path=tmp_path / "c.toml"))
+    assert r.properties["E1"].verdict == "consistent"

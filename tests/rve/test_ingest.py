@@ -425,7 +425,8 @@ def test_values_that_overflow_in_si_name_the_line(tmp_path):
         curve_from_columns(t, "x", stress=("s", "GPa"), strain=("e", "1"))
 
 
-_number = st.floats(-1e6, 1e6, allow_nan=False).map(lambda v: f"{v:.6g}")
+_number = st.one_of(st.floats(-1e6, 1e6, allow_nan=False).map(lambda v: f"{v:.6g}"),
+                    st.sampled_from(["abc", "", "nan", "1e5", ".5", "-0"]))
 _extra = st.sampled_from(["", "   ", "# note", "% note", "  # indented note", "\t"])
 
 
@@ -436,9 +437,10 @@ _extra = st.sampled_from(["", "   ", "# note", "% note", "  # indented note", "\
     header=st.booleans(),
     extras=st.lists(st.tuples(st.integers(0, 10), _extra), max_size=4),
     crlf=st.booleans(),
+    lead=st.sampled_from(["", " ", "\t ", "\x0b"]),
 )
-def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, extras, crlf):
-    lines = [delim.join(r) for r in rows]
+def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, extras, crlf, lead):
+    lines = [lead + delim.join(r) for r in rows]
     if header:
         lines.insert(0, delim.join(["disp", "force"]))
     for pos, text in extras:
@@ -451,7 +453,8 @@ def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, ex
     for p in (fast, slow):
         try:
             t = read_table(p)
-            outcomes.append((t.header, t.data.tolist(), t.lines.tolist(), t.delimiter))
+            outcomes.append((t.header, np.nan_to_num(t.data, nan=7.5).tolist(),
+                             t.lines.tolist(), t.delimiter, dict(t.bad_cells)))
         except DataFileError as exc:
             outcomes.append(type(exc))
     assert outcomes[0] == outcomes[1]

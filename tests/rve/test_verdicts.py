@@ -160,3 +160,30 @@ def test_best_not_among_estimates_raises():
 def test_unknown_property_kind_raises():
     with pytest.raises(InputError, match="property name 'K23' is not a modulus"):
         grade_property("K23", 1e9)
+
+
+# property by property, hand-made numbers (invented glass/epoxy-like values at Vf = 0.55):
+# name, Reuss, Voigt, Mori-Tanaka, value, expected verdict
+TABLE = [
+    ("E1", 7.3e9, 41.3e9, 41.2e9, 41.0e9, "consistent"),       # -0.5 %: inside +-3 %
+    ("E1", 7.3e9, 41.3e9, 41.2e9, 37.0e9, "suspect"),          # -10 %: fibre-dominated, tight
+    ("E1", 7.3e9, 41.3e9, 41.2e9, 41.2e12, "violates_bounds"),  # x 1000
+    ("G12", 2.7e9, 16.8e9, 3.9e9, 4.3e9, "consistent"),        # +10 %: full field above MT
+    ("G12", 2.7e9, 16.8e9, 3.9e9, 3.0e9, "suspect"),           # -23 %
+    ("G12", 2.7e9, 16.8e9, 3.9e9, 2.0e9, "violates_bounds"),   # below Reuss
+    ("G23", 2.7e9, 16.8e9, 3.5e9, 4.0e9, "consistent"),        # +14 %: inside the G23 band
+    ("G23", 2.7e9, 16.8e9, 3.5e9, 5.0e9, "suspect"),           # +43 %
+    ("nu12", None, None, 0.27, 0.268, "consistent"),
+    ("nu12", None, None, 0.27, 0.32, "suspect"),
+    ("nu23", None, None, 0.45, 0.40, "consistent"),            # MT overestimates nu23
+    ("nu23", None, None, 0.45, 0.50, "suspect"),
+]
+
+
+@pytest.mark.parametrize(("name", "lb", "ub", "mt", "value", "verdict"), TABLE)
+def test_verdict_table(name, lb, ub, mt, value, verdict):
+    band = fibre_band(name, mt, 0.55, "random")
+    r = grade_property(name, value, lower_bound=lb, upper_bound=ub,
+                       estimates={"mori_tanaka": mt}, band=band)
+    assert r.verdict == verdict, r.reasons
+    assert r.reasons  # every verdict carries its reasons

@@ -164,3 +164,16 @@ def test_demo_bad_report_is_written_and_names_the_causes(tmp_path):
     write_check_report(r, tmp_path / "bad")
     md = (tmp_path / "bad" / "report.md").read_text()
     assert "violates_bounds" in md and "A unit slip" in md and "check size.z" in md
+
+
+def test_demo_histories_are_what_the_generator_writes(tmp_path):
+    import importlib.util
+
+    spec = importlib.util.spec_from_file_location("demo_generate", DEMO / "generate.py")
+    gen = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(gen)
+    gen.main(tmp_path)
+    for d in "xyz":
+        made = (tmp_path / f"rve_{d}.csv").read_text()
+        assert made == (DEMO / f"rve_{d}.csv").read_text()
+        assert made.startswith("# invented example")
