@@ -266,7 +266,7 @@ def sweep_fraction(
     >>> from micromech.materials import Composite, Isotropic
     >>> c = Composite(Isotropic(E="72 GPa", nu=0.22), Isotropic(E="3.5 GPa", nu=0.35), 0.5)
     >>> s = sweep_fraction(c, "E1", [0.0, 1.0 / 2], models=["rule_of_mixtures"])
-    >>> [round(v / 1e9, 2) for v in s.values["rule_of_mixtures"]]
+    >>> [round(float(v) / 1e9, 2) for v in s.values["rule_of_mixtures"]]
     [3.5, 37.75]
     """
     c = _design(design, fibre, matrix, fibre_density, matrix_density, layup, ply_thickness)

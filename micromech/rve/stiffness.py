@@ -227,7 +227,9 @@ def _cases(values: ArrayLike, name: str) -> Array:
     bad = ~np.isfinite(arr)
     if bad.any():
         k, c = (int(i) for i in np.argwhere(bad)[0])
-        raise InputError(f"{name}: load case {k}, component {c} is {float(arr[k, c])!r}; must be finite")
+        raise InputError(
+            f"{name}: load case {k}, component {c} is {float(arr[k, c])!r}; must be finite"
+        )
     return arr
 
 

@@ -19,16 +19,19 @@ EPOXY = MatrixPhase(3.4e9, 0.3)
 
 def test_kaw_glass_epoxy_transverse_modulus_with_xi_2():
     r = halpin_tsai(GLASS, EPOXY, 0.7)
-    assert float(r.E2) / 1e9 == pytest.approx(20.20, abs=0.01)  # Kaw 2nd ed. Example 3.? HT E2 (from memory)
+    # Kaw 2nd ed. Ch. 3, Halpin-Tsai example (from memory; example number not recalled)
+    assert float(r.E2) / 1e9 == pytest.approx(20.20, abs=0.01)
 
 
 def test_kaw_glass_epoxy_shear_modulus_with_xi_1():
     r = halpin_tsai(GLASS, EPOXY, 0.7)
-    assert float(r.G12) / 1e9 == pytest.approx(6.169, abs=0.002)  # Kaw 2nd ed., HT G12 (from memory)
+    # Kaw 2nd ed. Ch. 3, Halpin-Tsai example (from memory; example number not recalled)
+    assert float(r.G12) / 1e9 == pytest.approx(6.169, abs=0.002)
 
 
 def test_hand_calculation_of_the_formula():
-    # eta = (25 - 1)/(25 + 2) = 8/9; E/Em = (1 + 2 (8/9) 0.6)/(1 - (8/9) 0.6): Halpin & Kardos Eq. 1-2
+    # eta = (25 - 1)/(25 + 2) = 8/9; E/Em = (1 + 2 (8/9) 0.6)/(1 - (8/9) 0.6)
+    # (Halpin & Kardos 1976, Eqs. 1-2; hand calculation)
     eta = 8 / 9
     assert float(halpin_tsai_modulus(85e9, 3.4e9, 0.6, 2.0)) == pytest.approx(
         3.4e9 * (1 + 2 * eta * 0.6) / (1 - eta * 0.6), rel=1e-14)

@@ -63,7 +63,8 @@ def test_aligned_spheroids_equal_willis_lower_bound(glass, epoxy):
      ("spheroid", 30.0, "aligned"), ("spheroid", 30.0, "random_in_plane"),
      ("spheroid", 10.0, "random_3d"), ("continuous", None, "random_in_plane")],
 )
-def test_fraction_zero_gives_the_matrix_and_one_the_fibre(carbon, epoxy, inclusion, ar, orientation):
+def test_fraction_zero_gives_the_matrix_and_one_the_fibre(carbon, epoxy, inclusion, ar,
+                                                          orientation):
     # exact limits of Benveniste's (1987) Eq. 23; at vf = 1 the (averaged) fibre itself
     r = mori_tanaka(carbon, epoxy, np.array([0.0, 1.0]), inclusion, ar, orientation=orientation)
     C = r.stiffness()

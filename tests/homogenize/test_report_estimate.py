@@ -57,11 +57,6 @@ def test_plot_writes_a_png(tmp_path):
     assert out.exists() and out.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
 
 
-def test_plot_of_spheroids(tmp_path):
-    est = estimate(Composite(GLASS, EPOXY, 0.2, inclusion="spheroid", aspect_ratio=5.0))
-    assert plot_estimates(est, tmp_path / "s.png", points=5).exists()
-
-
 def _case(tmp_path: Path, text: str = CASE) -> str:
     p = tmp_path / "case.toml"
     p.write_text(text)

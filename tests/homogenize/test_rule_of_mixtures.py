@@ -12,12 +12,14 @@ EPOXY = MatrixPhase(3.4e9, 0.3, 63e-6)
 
 def test_kaw_glass_epoxy_longitudinal_modulus():
     r = rule_of_mixtures(GLASS, EPOXY, 0.7)
-    assert float(r.E1) / 1e9 == pytest.approx(60.52, abs=0.005)  # Kaw 2nd ed. Example 3.3 (from memory)
+    # Kaw 2nd ed. Example 3.3 (from memory)
+    assert float(r.E1) / 1e9 == pytest.approx(60.52, abs=0.005)
 
 
 def test_kaw_glass_epoxy_transverse_modulus():
     r = rule_of_mixtures(GLASS, EPOXY, 0.7)
-    assert float(r.E2) / 1e9 == pytest.approx(10.37, abs=0.005)  # Kaw 2nd ed. Example 3.4 (from memory)
+    # Kaw 2nd ed. Example 3.4 (from memory)
+    assert float(r.E2) / 1e9 == pytest.approx(10.37, abs=0.005)
 
 
 def test_kaw_glass_epoxy_major_poisson_ratio():
@@ -27,7 +29,8 @@ def test_kaw_glass_epoxy_major_poisson_ratio():
 
 def test_kaw_glass_epoxy_in_plane_shear_modulus():
     r = rule_of_mixtures(GLASS, EPOXY, 0.7)
-    assert float(r.G12) / 1e9 == pytest.approx(4.014, abs=0.001)  # Kaw 2nd ed. Example 3.6 (from memory)
+    # Kaw 2nd ed. Example 3.6 (from memory)
+    assert float(r.G12) / 1e9 == pytest.approx(4.014, abs=0.001)
 
 
 def test_limits_are_the_phases(carbon, epoxy):

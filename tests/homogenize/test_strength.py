@@ -3,6 +3,8 @@ import pytest
 
 from micromech.errors import InputError
 from micromech.homogenize import (
+    FibrePhase,
+    MatrixPhase,
     fibre_spacing_ratio,
     in_plane_shear_strength,
     kink_band,
@@ -13,7 +15,6 @@ from micromech.homogenize import (
     transverse_strength,
     yield_bounds,
 )
-from micromech.homogenize import FibrePhase, MatrixPhase
 from micromech.materials import Isotropic, TransverselyIsotropic
 from micromech.materials.composite import Composite
 
@@ -23,7 +24,8 @@ from micromech.materials.composite import Composite
 
 def test_kaw_glass_epoxy_longitudinal_tensile_strength():
     Xt = longitudinal_tension(1550e6, 85e9, 3.4e9, 0.7, matrix_strength=72e6)
-    assert float(Xt) / 1e6 == pytest.approx(1104, abs=0.5)  # Kaw 2nd ed. Example 3.? (from memory)
+    # Kaw 2nd ed. Ch. 3, longitudinal tensile strength example (from memory; number not recalled)
+    assert float(Xt) / 1e6 == pytest.approx(1104, abs=0.5)
 
 
 def test_kaw_glass_epoxy_transverse_tensile_strength_hand_calculation():

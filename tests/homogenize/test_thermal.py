@@ -21,12 +21,14 @@ EPOXY = MatrixPhase(3.4e9, 0.3, 63e-6)
 
 def test_kaw_glass_epoxy_axial_cte():
     a1, _ = schapery(GLASS, EPOXY, 0.7)
-    assert float(a1) * 1e6 == pytest.approx(5.978, abs=5e-4)  # Kaw 2nd ed. Example 3.? (from memory)
+    # Kaw 2nd ed. Ch. 3, Schapery CTE example (from memory; example number not recalled)
+    assert float(a1) * 1e6 == pytest.approx(5.978, abs=5e-4)
 
 
 def test_kaw_glass_epoxy_transverse_cte():
     _, a2 = schapery(GLASS, EPOXY, 0.7)
-    assert float(a2) * 1e6 == pytest.approx(27.40, abs=0.01)  # Kaw 2nd ed. Example 3.? (from memory)
+    # Kaw 2nd ed. Ch. 3, Schapery CTE example (from memory; example number not recalled)
+    assert float(a2) * 1e6 == pytest.approx(27.40, abs=0.01)
 
 
 def test_schapery_limits_are_the_phases(carbon, epoxy):
@@ -62,7 +64,8 @@ def test_spheres_cte_lies_in_the_levin_hashin_shtrikman_bounds(glass, epoxy):
     v = np.linspace(0, 1, 21)
     lo, hi = hashin_shtrikman(glass, epoxy, v)
     mt = mori_tanaka(glass, epoxy, v, "sphere")
-    assert np.all(lo.alpha1 <= mt.alpha1 * (1 + 1e-12)) and np.all(mt.alpha1 <= hi.alpha1 * (1 + 1e-12))
+    assert np.all(lo.alpha1 <= mt.alpha1 * (1 + 1e-12))
+    assert np.all(mt.alpha1 <= hi.alpha1 * (1 + 1e-12))
 
 
 def test_levin_fibre_reproduces_mori_tanakas_cte(carbon, epoxy):

@@ -130,8 +130,9 @@ def test_same_data_in_mn_um_and_n_mm_give_the_same_metrics(tmp_path):
     u_um = (eps * length / 1e-6).tolist()
     f_mn = (sig * area / 1e-3).tolist()
     a, b = tmp_path / "a.csv", tmp_path / "b.csv"
-    a.write_text("# invented\nu,f\n" + "\n".join(f"{u!r},{f!r}" for u, f in zip(u_um, f_mn, strict=True)))
-    b.write_text("u f\n" + "\n".join(f"{u / 1e3!r} {f / 1e3!r}" for u, f in zip(u_um, f_mn, strict=True)))
+    pairs = list(zip(u_um, f_mn, strict=True))
+    a.write_text("# invented\nu,f\n" + "\n".join(f"{u!r},{f!r}" for u, f in pairs))
+    b.write_text("u f\n" + "\n".join(f"{u / 1e3!r} {f / 1e3!r}" for u, f in pairs))
     ma = metrics_of_curve(load_curve(a, "x", size, force=("f", "mN"), displacement=("u", "um")))
     mb = metrics_of_curve(load_curve(b, "x", size, force=("f", "N"), displacement=("u", "mm")))
     assert ma.yield_strength == pytest.approx(mb.yield_strength, rel=1e-12)
@@ -247,7 +248,7 @@ def test_metrics_of_a_long_curve_take_well_under_a_third_of_a_second():
         ([0.0, np.inf, 2.0], [0.0, 1.0, 2.0], "point 1 is inf"),
         (["a", "b", "c"], [0.0, 1.0, 2.0], "expected an array of numbers"),
         ([0.0, 1.0, 2.0], [0.0, 0.0, 0.0], "stress is zero at every point"),
-        ([0.0, 1.0, 2.0, 3.0], [0.0, 5.0, 1.0, 2.0], r"only 2 loading point\(s\) up to the ultimate"),
+        ([0.0, 1.0, 2.0, 3.0], [0.0, 5.0, 1.0, 2.0], r"only 2 loading point\(s\) up to the"),
         ([1e-3, 1e-3, 1e-3, 1e-3], [0.0, 1.0, 2.0, 3.0], "strain does not change"),
         ([1e-300, 2e-300, 3e-300], [1e300, 2e300, 3e300], "out of range"),
     ],
