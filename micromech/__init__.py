@@ -4,6 +4,17 @@ Public API re-exports only.
 """
 
 from micromech.case import load_case
+from micromech.design import (
+    MonteCarloResult,
+    SizingResult,
+    SizingTarget,
+    Sweep,
+    monte_carlo,
+    size_fraction,
+    sweep_angle,
+    sweep_fraction,
+    sweep_ply_share,
+)
 from micromech.errors import (
     CaseFileError,
     DataFileError,
@@ -14,6 +25,7 @@ from micromech.errors import (
     RegistryError,
     UnitError,
 )
+from micromech.homogenize import Estimates, FibrePhase, MatrixPhase, estimate, mori_tanaka
 from micromech.laminate import (
     Laminate,
     Ply,
@@ -42,6 +54,20 @@ from micromech.results import ElasticConstants
 from micromech.units import parse_quantity
 
 __all__ = [
+    "Estimates",
+    "FibrePhase",
+    "MatrixPhase",
+    "estimate",
+    "mori_tanaka",
+    "MonteCarloResult",
+    "SizingResult",
+    "SizingTarget",
+    "Sweep",
+    "monte_carlo",
+    "size_fraction",
+    "sweep_angle",
+    "sweep_fraction",
+    "sweep_ply_share",
     "Laminate",
     "Ply",
     "PlyMaterial",

@@ -190,8 +190,7 @@ def ti_result(
         E1, E2 = E3, G12 = G13, G23, nu12 = nu13, nu23.
     """
     if S is None:
-        if C is None:
-            raise ValueError("ti_result needs C or S")  # programming error, not user input
+        assert C is not None, "ti_result needs C or S"  # internal use only
         S = W.inv(C)
     E1 = 1.0 / S.d
     tr = S.c + S.g

@@ -25,17 +25,19 @@ last quarter of the window (at least 3 points; the *tangent* at its end). A wind
 
 with ``tol = linear_tolerance`` (default 1 %) and SE_k the standard error of T_k - E_k from the
 noise sigma: a deviation counts only when it is both larger than the tolerance and larger than
-the noise can explain. The linear range ends at the last linear window before the first run of
-5 consecutive non-linear windows (single non-linear windows caused by noise do not end it). The
-modulus is the least-squares slope over that window (with an intercept), reported with its strain
-range and r2. A user-given strain range replaces the search.
+the noise can explain. Windows too short for their slope to stand 3 standard errors clear of
+zero count as linear (undecided). The linear range ends at the last linear window before the
+first run of 5 consecutive non-linear windows (single non-linear windows caused by noise do not
+end it). The modulus is the least-squares slope over that window (with an intercept), reported
+with its strain range and r2. A user-given strain range replaces the search.
 
 Offset yield
 ------------
 The offset line is the fit line moved along the strain axis by ``offset`` (default 0.002, the
 usual 0.2 % offset: common practice, no source). The yield point is the first crossing of the
-curve below that line that persists (for noisy curves the curve is first smoothed by a centred
-moving average over about 1 % of the points and the crossing must hold for as many points),
+curve below that line that persists (for noisy curves, with a noise sigma above 1e-6 of the
+peak stress and 50 points or more, the curve is first smoothed by a centred moving average over
+about 1 % of the points, 5 to 501, and the crossing must hold for as many points),
 interpolated linearly between the two points that bracket it. When the curve never falls below
 the line before its ultimate point, the yield strength is None and the note says why.
 
@@ -43,17 +45,18 @@ Proportional limit
 ------------------
 The first point after the middle of the fit range where the (smoothed) curve departs from the
 fit line by more than ``proportional_tolerance`` (default 1 %) of the line's stress, and by more
-than 3 noise sigmas, for good; interpolated between the bracketing points. The ultimate point
+than 3 noise sigmas (of the smoothed curve), and stays so over the smoothing width;
+interpolated between the bracketing points. The ultimate point
 when the curve never departs (linear to the end).
 
 Ultimate, failure, energy
 -------------------------
 Ultimate strength: largest absolute stress, with the strain there. Final strain: strain of the
-last point. ``failed`` is True when, after the ultimate point and at a strain at least as large,
-the stress falls below the ultimate by more than 1 % and 3 noise sigmas: the record shows the
-failure. Otherwise (the largest stress is at, or within noise of, the end) the run stopped before
-failure and the strength is only a lower limit. Energy per volume to the ultimate point: the
-trapezoid integral of stress over strain along the loading envelope (J/m^3).
+last point. ``failed`` is True when, after the peak of the (smoothed) record and at a strain at
+least as large, the stress falls below that peak by more than 1 % and 3 noise sigmas: the record
+shows the failure. Otherwise (the largest stress is at, or within noise of, the end) the run
+stopped before failure and the strength is only a lower limit. Energy per volume to the ultimate
+point: the trapezoid integral of stress over strain along the loading envelope (J/m^3).
 
 References
 ----------
@@ -301,6 +304,11 @@ def curve_metrics(
     xn = sgn * x
     yn = sgn * y
     peak = float(yn[iu])
+    if xn[iu] < 0:
+        raise InputError(
+            f"{label}: at the ultimate point stress {y[iu]:.4g} Pa and strain {x[iu]:.4g} have "
+            "opposite signs; check the sign convention of the force and displacement columns"
+        )
 
     # 2. loading envelope up to the ultimate point
     xl = xn[: iu + 1]

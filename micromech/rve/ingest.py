@@ -292,7 +292,7 @@ def read_table(
         raise DataFileError(f"{name}: cannot read the file ({exc.strerror or exc})") from None
     if raw.startswith(b"\xef\xbb\xbf"):
         raw = raw[3:]
-    fast = _read_ascii(raw, delim, comment, skip_rows) if raw.isascii() else None
+    fast = _read_regular(raw, delim, comment, skip_rows)
     if fast is not None:
         f_header, f_header_line, f_data, f_lines, f_delim = fast
         f_data.flags.writeable = False
@@ -354,16 +354,16 @@ def read_table(
 _MAX_LEAD = 64  # leading blanks scanned per line before the line-by-line reader takes over
 
 
-def _read_ascii(
+def _read_regular(
     raw: bytes, delim: str | None, comment: str, skip_rows: int
 ) -> tuple[tuple[str, ...], int | None, Array, NDArray[np.int64], str] | None:
-    """Read a regular ASCII file with vectorised line scans; None to use the line-by-line path.
+    """Read a regular file with vectorised line scans; None to use the line-by-line path.
 
     Classifies every line (blank, comment, data) and counts its cells from the byte positions
     of line breaks and delimiters, then parses all numbers in one call. Anything irregular (a
-    control character, a ragged row, a cell that is not a number, fewer than 3 rows) returns
-    None, and the line-by-line reader then finds and reports it, so both paths accept and
-    reject exactly the same files.
+    control character, a non-ASCII character outside comment lines, a ragged row, a cell that
+    is not a number, fewer than 3 rows) returns None, and the line-by-line reader then finds and
+    reports it, so both paths accept and reject exactly the same files.
     """
     if b"\r" in raw:
         raw = raw.replace(b"\r\n", b"\n").replace(b"\r", b"\n")
@@ -387,8 +387,18 @@ def _read_ascii(
     blank = lead >= ends
     first_char = a[np.minimum(lead, a.size - 1)]
     marks = np.frombuffer(comment.encode("ascii", "ignore"), dtype=np.uint8)
-    keep = ~blank & ~np.isin(first_char, marks)
+    is_comment = ~blank & np.isin(first_char, marks)
+    keep = ~blank & ~is_comment
     keep[:skip_rows] = False
+    high = np.flatnonzero(a >= 128)
+    if high.size:  # non-ASCII text is fine in comment lines and skipped lines only
+        line_of = np.searchsorted(starts, high, side="right") - 1
+        if not np.all(is_comment[line_of] | (line_of < skip_rows)):
+            return None
+        try:
+            raw.decode("utf-8")
+        except UnicodeDecodeError:
+            return None
     kept = np.flatnonzero(keep)
     if kept.size == 0:
         return None

@@ -13,6 +13,7 @@ from micromech.homogenize import (
     halpin_tsai,
     hashin_shtrikman,
     hashin_shtrikman_fibre,
+    hashin_shtrikman_spheroid,
     mori_tanaka,
     rule_of_mixtures,
     voigt_reuss,
@@ -77,7 +78,7 @@ def test_fibre_bounds_order_every_continuous_estimate(fp, Em, num):
         assert _le(hi.get(n), V.get(n)), n
         assert _le(R.get(n), mt.get(n)) and _le(mt.get(n), V.get(n)), n
         assert _le(lo.get(n), mt.get(n)) and _le(mt.get(n), hi.get(n)), n
-    assert _le(lo.nu12, mt.nu12, 1e-12) and _le(mt.nu12, hi.nu12, 1e-12)
+    assert _le(lo.nu12, mt.nu12, 1e-9) and _le(mt.nu12, hi.nu12, 1e-9)
     for r in (V, R, lo, hi, mt, cylinders(f, m, VF), rule_of_mixtures(f, m, VF), chamis(f, m, VF),
               halpin_tsai(f, m, VF)):
         _finite(r)
@@ -100,3 +101,9 @@ def test_spheroid_estimates_are_admissible(Ef, nuf, Em, num, ar, orientation):
     V, R = voigt_reuss(f, m, VF)
     for n in ("E1", "E2", "E3", "G12", "G23"):
         assert _le(R.get(n), mt.get(n)) and _le(mt.get(n), V.get(n)), n
+    if orientation == "aligned":
+        # Willis (1977) bounds for spheroidal statistics enclose MT; all inside Voigt-Reuss
+        lo, hi = hashin_shtrikman_spheroid(f, m, VF, ar)
+        for n in ("E1", "E2", "G12", "G23"):
+            assert _le(R.get(n), lo.get(n)) and _le(lo.get(n), mt.get(n)), n
+            assert _le(mt.get(n), hi.get(n)) and _le(hi.get(n), V.get(n)), n

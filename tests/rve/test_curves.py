@@ -258,6 +258,21 @@ def test_bad_curves_raise(strain, stress, message):
         curve_metrics(strain, stress)
 
 
+def test_stress_and_strain_of_opposite_sign_raise():
+    x = np.linspace(0.0, 0.01, 11)
+    with pytest.raises(InputError, match="opposite signs; check the sign convention"):
+        curve_metrics(-x, 70e9 * x)
+
+
+def test_inputs_are_not_modified():
+    eps, sig = ramberg_osgood(10.0, points=301)
+    lat = -0.3 * eps
+    copies = eps.copy(), sig.copy(), lat.copy()
+    curve_metrics(eps, sig, lateral={"y": lat})
+    for before, after in zip(copies, (eps, sig, lat), strict=True):
+        np.testing.assert_array_equal(before, after)
+
+
 def test_negative_initial_slope_raises():
     x = np.arange(6) * 1e-3
     y = np.array([0.0, -1.0, -2.0, -3.0, 0.0, 10.0]) * 1e6
