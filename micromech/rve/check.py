@@ -514,28 +514,14 @@ def _gauge(direction: str, size: Sequence[float]) -> tuple[float, float]:
 
 
 def _read_curve(lc: Any, size: Sequence[float] | None) -> Any:
-    from micromech.rve.ingest import Curve, read_table
+    from micromech.rve.ingest import load_curve
 
-    table = read_table(lc.file, delimiter=lc.delimiter, skip_rows=lc.skip_rows)
-    label = str(lc.file)
-    lateral: dict[str, Array] = {}
     if lc.mode == "force_displacement":
-        assert size is not None
-        area, gauge = _gauge(lc.direction, size)
-        stress = table.column(lc.force.column, "force column") * lc.force.factor / area
-        strain = (table.column(lc.displacement.column, "displacement column")
-                  * lc.displacement.factor / gauge)
-    else:
-        stress = table.column(lc.stress.column, "stress column") * lc.stress.factor
-        strain = table.column(lc.strain.column, "strain column") * lc.strain.factor
-    for spec in lc.lateral:
-        values = table.column(spec.column, f"lateral {spec.direction} column") * spec.factor
-        if spec.kind == "length":
-            assert size is not None
-            values = values / size["xyz".index(spec.direction)]
-        lateral[spec.direction] = values
-    return Curve(direction=lc.direction, strain=strain, stress=stress, lateral=lateral,
-                 source=label, lines=table.lines)
+        return load_curve(lc.file, lc.direction, size, force=lc.force,
+                          displacement=lc.displacement, lateral=lc.lateral,
+                          delimiter=lc.delimiter, skip_rows=lc.skip_rows)
+    return load_curve(lc.file, lc.direction, stress=lc.stress, strain=lc.strain,
+                      lateral=lc.lateral, delimiter=lc.delimiter, skip_rows=lc.skip_rows)
 
 
 def _strength_limits(case: Any) -> tuple[float | None, float | None]:
