@@ -99,9 +99,8 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     est = estimate(panel.composite, case=panel.name)
     files = {"estimate_plot": plot_estimates(est, out / "estimate.png")}
 
-    sizing = size_fraction(panel.composite, list(DEMO_TARGETS), layup=panel.laminate.layup,
-                           ply_thickness=panel.laminate.ply_thickness)
-    files["sizing_plot"] = plot_sizing(panel.composite, sizing, out / "sizing.png")
+    sizing = size_fraction(panel, list(DEMO_TARGETS))  # the case contributes its layup
+    files["sizing_plot"] = plot_sizing(panel, sizing, out / "sizing.png")
 
     analysis = analyse_laminate(laminate_from_case(panel), panel.laminate.loads)
 
