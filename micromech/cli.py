@@ -131,7 +131,7 @@ def materials_command(key: str | None, as_json: bool, paths: tuple[str, ...]) ->
         return
     click.echo(f"{m.key}: {m.name}")
     click.echo(f"  kind: {m.kind}    role: {m.role or '-'}")
-    click.echo(f"  file: {reg.source_file(m.key)}")
+    click.echo(f"  file: {reg.source_file(key)}")
     click.echo(f"  source: {m.source}")
     given = m.model_fields_set
     for name, kind in _MATERIAL_FIELDS:

@@ -123,7 +123,7 @@ class ElasticConstants:
     def from_stiffness(
         cls, C: ArrayLike, *, model: str = "", source: str = "", extra: dict[str, Any] | None = None
     ) -> ElasticConstants:
-        """Read the engineering constants of a 6x6 stiffness (see :func:`tensors.engineering_constants`).
+        """Read the engineering constants of a 6x6 stiffness (see `tensors.engineering_constants`).
 
         Parameters
         ----------

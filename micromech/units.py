@@ -102,7 +102,9 @@ def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
     7e-06
     """
     if kind not in DIMENSIONS:
-        raise UnitError(f"{field}: unknown quantity kind {kind!r}; expected one of {sorted(DIMENSIONS)}")
+        raise UnitError(
+            f"{field}: unknown quantity kind {kind!r}; expected one of {sorted(DIMENSIONS)}"
+        )
     if isinstance(value, bool):
         raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r}")
     if isinstance(value, int | float):
@@ -112,7 +114,8 @@ def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
             return float(value)
         except (TypeError, ValueError):
             raise UnitError(
-                f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r} of type {type(value).__name__}"
+                f"{field} expects {_PLAIN_WORDS[kind]}, got {value!r} "
+                f"of type {type(value).__name__}"
             ) from None
     text = value.strip()
     try:
@@ -131,9 +134,11 @@ def _parse_string(text: str, kind: str, field: str) -> float:
     try:
         q: Any = ureg.Quantity(text.replace("µ", "u"))
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
-        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}: {exc}") from None
-    dim_expected, si_unit = DIMENSIONS[kind]
-    expected = ureg.Quantity(1, si_unit).dimensionality if si_unit else ureg.Quantity(1).dimensionality
+        raise UnitError(
+            f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}: {exc}"
+        ) from None
+    si_unit = DIMENSIONS[kind][1]
+    expected = (ureg.Quantity(1, si_unit) if si_unit else ureg.Quantity(1)).dimensionality
     if not hasattr(q, "dimensionality") or q.dimensionality != expected:
         raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}")
     mag = q.to(si_unit).magnitude if si_unit else q.to("dimensionless").magnitude

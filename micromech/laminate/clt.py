@@ -292,6 +292,8 @@ def load_vector(loads: Mapping[str, Any] | ArrayLike | None) -> tuple[Array, flo
         ])
         dT = loads.get("delta_T", 0.0)
         dT = parse_quantity(dT, "temperature_change", "loads.delta_T") if dT is not None else 0.0
+        if not (np.all(np.isfinite(vec)) and np.isfinite(dT)):
+            raise InputError(f"loads: resultants and delta_T must be finite, got {dict(loads)}")
         return vec, float(dT)
     vec = _f(loads)
     if vec.shape[-1:] != (6,):

@@ -251,8 +251,10 @@ def test_bad_loads_are_refused():
         load_vector([1.0, 2.0, 3.0])
     with pytest.raises(InputError, match="resultants must be finite"):
         load_vector([1.0, 2.0, 3.0, 0.0, 0.0, float("inf")])
-    with pytest.raises(UnitError, match="loads.Nx must be a finite number"):
+    with pytest.raises(InputError, match="resultants and delta_T must be finite"):
         load_vector({"Nx": float("nan")})
+    with pytest.raises(UnitError, match="loads.Nx must be a finite number"):
+        load_vector({"Nx": "nan N/mm"})
     vec, dT = load_vector({"Nx": "100 N/mm", "Mxy": "2 N*mm/mm", "delta_T": "-100 K"})
     np.testing.assert_allclose(vec, [1e5, 0, 0, 0, 0, 2.0])
     assert dT == -100.0
