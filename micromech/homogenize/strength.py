@@ -54,6 +54,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
 from micromech.homogenize import _common as cm
+from micromech.safety import CAUTION
 
 __all__ = [
     "StrengthEstimate",
@@ -70,8 +71,6 @@ __all__ = [
 
 Array = NDArray[np.float64]
 
-CAUTION = ("Estimates and bounds are not design allowables: qualified test data, the applicable "
-           "codes and a licensed engineer decide.")
 
 
 @dataclass(frozen=True, eq=False)

@@ -27,6 +27,7 @@ from micromech.errors import InputError
 from micromech.laminate.clt import LOAD_NAMES, Laminate
 from micromech.laminate.failure import MODES
 from micromech.laminate.progressive import ply_strength_ratios
+from micromech.safety import CAUTION
 
 __all__ = ["ENVELOPE_AXES", "Envelope", "failure_envelope", "plot_envelopes"]
 
@@ -45,10 +46,6 @@ _PLOT_UNITS: dict[str, tuple[float, str]] = {
     "N/m": (1e-3, "N/mm"), "N": (1.0, "N*m/m"), "Pa": (1e-6, "MPa"),
 }
 
-CAUTION = (
-    "Estimates and bounds are not design allowables; qualified test data, the applicable "
-    "codes and a licensed engineer decide."
-)
 
 
 @dataclass(frozen=True, eq=False)

@@ -17,6 +17,7 @@ from micromech.design.inverse import SizingResult, TargetSizing
 from micromech.design.sweeps import Sweep
 from micromech.design.targets import format_value, property_unit
 from micromech.design.uncertainty import MonteCarloResult
+from micromech.safety import CAUTION
 
 __all__ = [
     "CAUTION",
@@ -27,8 +28,6 @@ __all__ = [
     "plot_histograms",
 ]
 
-CAUTION = ("Estimates and bounds are not design allowables; qualified test data, the applicable "
-           "codes and a licensed engineer decide.")
 
 _SHORT = {
     "rule_of_mixtures": "rule of mixtures", "halpin_tsai": "Halpin-Tsai", "chamis": "Chamis",

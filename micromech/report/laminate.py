@@ -15,13 +15,10 @@ from micromech.laminate.analysis import LaminateAnalysis
 from micromech.laminate.clt import LOAD_NAMES, POINTS
 from micromech.laminate.envelope import Envelope
 from micromech.laminate.failure import CRITERIA
+from micromech.safety import CAUTION
 
 __all__ = ["CAUTION", "laminate_json", "laminate_table"]
 
-CAUTION = (
-    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
-    "and a licensed engineer decide."
-)
 
 _LOAD_UNITS = {"Nx": ("N/mm", 1e-3), "Ny": ("N/mm", 1e-3), "Nxy": ("N/mm", 1e-3),
                "Mx": ("N*mm/mm", 1.0), "My": ("N*mm/mm", 1.0), "Mxy": ("N*mm/mm", 1.0)}

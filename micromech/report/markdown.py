@@ -15,7 +15,7 @@ from pathlib import Path
 
 from micromech.errors import InputError
 
-__all__ = ["escape_cell", "markdown_table", "write_atomic"]
+__all__ = ["escape_cell", "file_mode", "markdown_table", "write_atomic"]
 
 
 def escape_cell(text: object) -> str:
@@ -103,10 +103,31 @@ def write_atomic(path: str | Path, data: str | bytes) -> Path:
             fh.write(payload)
             fh.flush()
             os.fsync(fh.fileno())
-        os.chmod(tmp, 0o644)
+        os.chmod(tmp, file_mode(target))
         os.replace(tmp, target)
     except BaseException:
         if os.path.exists(tmp):
             os.unlink(tmp)
         raise
     return target
+
+
+def file_mode(path: Path) -> int:
+    """Permissions for an output: those of the file it replaces, else 0o666 less the umask.
+
+    Parameters
+    ----------
+    path : Path
+        Output file.
+
+    Returns
+    -------
+    int
+        Permission bits for :func:`os.chmod`.
+    """
+    try:
+        return path.stat().st_mode & 0o777
+    except FileNotFoundError:
+        mask = os.umask(0o022)
+        os.umask(mask)
+        return 0o666 & ~mask

@@ -11,18 +11,16 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from micromech.errors import InputError
+from micromech.report.markdown import file_mode, write_atomic
+from micromech.safety import CAUTION
 from micromech.units import parse_quantity
 
 if TYPE_CHECKING:  # pragma: no cover
     from micromech.rve.geometry import FibreArrangement
 
-__all__ = ["CAUTION", "csv_text", "write_atomic", "file_mode", "plot_arrangement"]
+__all__ = ["CAUTION", "csv_text", "write_atomic", "plot_arrangement"]
 
 #: The caution every written or printed output carries.
-CAUTION: str = (
-    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
-    "and a licensed engineer decide."
-)
 
 
 def csv_text(arrangement: FibreArrangement, unit: str = "um") -> str:
@@ -132,56 +130,3 @@ def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]
     finally:
         plt.close(fig)
     return out
-
-
-def write_atomic(path: Path, text: str) -> Path:
-    """Write text to a temporary file beside ``path`` and rename it over ``path``.
-
-    A reader never sees a half-written file, and a failed write leaves the old file untouched.
-
-    Parameters
-    ----------
-    path : Path
-        Output file.
-    text : str
-        Contents (UTF-8).
-
-    Returns
-    -------
-    Path
-        ``path``.
-    """
-    fd, tmp = tempfile.mkstemp(dir=path.parent or Path("."), prefix=f".{path.name}.",
-                               suffix=".tmp")
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.chmod(tmp, file_mode(path))
-        os.replace(tmp, path)
-    except BaseException:
-        Path(tmp).unlink(missing_ok=True)
-        raise
-    return path
-
-
-def file_mode(path: Path) -> int:
-    """Permissions for an output: those of the file it replaces, else 0o666 less the umask.
-
-    Parameters
-    ----------
-    path : Path
-        Output file.
-
-    Returns
-    -------
-    int
-        Permission bits for :func:`os.chmod`.
-    """
-    try:
-        return path.stat().st_mode & 0o777
-    except FileNotFoundError:
-        mask = os.umask(0o022)
-        os.umask(mask)
-        return 0o666 & ~mask

@@ -51,6 +51,7 @@ from micromech.rve.causes import (
     property_kind,
 )
 from micromech.rve.tolerances import BOUND_SLACK, HS_SLACK, Band, band_about
+from micromech.safety import CAUTION
 
 __all__ = [
     "CAUTION",
@@ -65,10 +66,6 @@ VERDICTS: tuple[str, ...] = ("consistent", "suspect", "violates_bounds")
 _RANK = {v: i for i, v in enumerate(VERDICTS)}
 
 #: The caution every table, report and JSON answer carries.
-CAUTION = (
-    "Estimates and bounds are not design allowables: qualified test data, the applicable codes "
-    "and a licensed engineer decide."
-)
 
 #: Band used when a property has an estimate but no measured band and no user tolerance
 #: (common practice, no source).
