@@ -3,9 +3,28 @@
 - :mod:`micromech.rve.ingest`: delimited history files into tables and stress-strain curves.
 - :mod:`micromech.rve.curves`: modulus, offset yield, proportional limit, strength, energy.
 - :mod:`micromech.rve.stiffness`: effective 6x6 stiffness from load cases; constants from curves.
+- :mod:`micromech.rve.geometry`: square, hexagonal and random periodic fibre arrangements.
+- :mod:`micromech.rve.check`: grade simulated properties against bounds and estimates.
 """
 
+from micromech.rve.check import (
+    CheckResult,
+    PropertyCheck,
+    check_case,
+    grade_property,
+    likely_causes,
+)
 from micromech.rve.curves import CurveMetrics, curve_metrics, metrics_of_curve
+from micromech.rve.geometry import (
+    FibreArrangement,
+    NeighbourStats,
+    RveGuidance,
+    hexagonal_cell,
+    nearest_neighbour_stats,
+    random_cell,
+    rve_size_guidance,
+    square_cell,
+)
 from micromech.rve.ingest import (
     DIRECTIONS,
     NORMAL_DIRECTIONS,
@@ -28,6 +47,19 @@ from micromech.rve.stiffness import (
 )
 
 __all__ = [
+    "CheckResult",
+    "FibreArrangement",
+    "NeighbourStats",
+    "PropertyCheck",
+    "RveGuidance",
+    "check_case",
+    "grade_property",
+    "hexagonal_cell",
+    "likely_causes",
+    "nearest_neighbour_stats",
+    "random_cell",
+    "rve_size_guidance",
+    "square_cell",
     "AXIS_NAMES",
     "DIRECTIONS",
     "DIRECTION_PROPERTY",
