@@ -27,7 +27,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from micromech.errors import CaseFileError, MicromechError, RegistryError
+from micromech.errors import CaseFileError, FractionError, MicromechError, RegistryError
 from micromech.materials.composite import ARRANGEMENTS, INCLUSIONS, Composite
 from micromech.materials.models import (
     Isotropic,
@@ -283,6 +283,8 @@ class _Ctx:
         except CaseFileError:
             raise
         except MicromechError as exc:
+            if str(exc).startswith(f"{self.label}: "):
+                raise  # already placed by an inner prefix
             raise type(exc)(f"{self.label}: {table} {exc}") from None
 
 
@@ -372,6 +374,9 @@ def _composite(
     _check_keys(ctx, table, _COMPOSITE_KEYS, where)
     if "volume_fraction" in table and "weight_fraction" in table:
         raise ctx.error(where, "give volume_fraction or weight_fraction, not both")
+    if "volume_fraction" not in table and "weight_fraction" not in table:
+        raise ctx.error(where, "missing required key 'volume_fraction' (or 'weight_fraction'): "
+                               "the fibre fraction of the composite")
     inclusion = _choice(ctx, table.get("inclusion", "continuous"), INCLUSIONS, where, "inclusion")
     arrangement = _choice(ctx, table.get("arrangement", "random"), ARRANGEMENTS, where,
                           "arrangement")
@@ -380,23 +385,24 @@ def _composite(
         aspect = _positive(ctx, aspect, "dimensionless", where, "aspect_ratio")
     void = _quantity(ctx, table.get("void_fraction", 0.0), "dimensionless", where,
                      "void_fraction")
+    key = "volume_fraction" if "volume_fraction" in table else "weight_fraction"
+    frac = _quantity(ctx, table[key], "dimensionless", where, key)
     if fibre is None or matrix is None:
+        # no composite without both constituents (a geometry-only case), but the fraction
+        # must still be a fraction
+        if not 0.0 <= frac <= 1.0:
+            raise FractionError(f"{ctx.label}: {where} {key} = {frac!r} is outside [0, 1] "
+                                "(rule: 0 <= value <= 1)")
         return None
     with ctx.prefix(where):
-        if "volume_fraction" in table:
-            vf = _quantity(ctx, table["volume_fraction"], "dimensionless", where,
-                           "volume_fraction")
-            return Composite(fibre, matrix, vf, inclusion=inclusion,  # type: ignore[arg-type]
+        if key == "volume_fraction":
+            return Composite(fibre, matrix, frac, inclusion=inclusion,  # type: ignore[arg-type]
                              aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
                              void_fraction=void)
-        if "weight_fraction" in table:
-            wf = _quantity(ctx, table["weight_fraction"], "dimensionless", where,
-                           "weight_fraction")
-            return Composite.from_weight_fraction(
-                fibre, matrix, wf, void_fraction=void, inclusion=inclusion,  # type: ignore[arg-type]
-                aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
-            )
-    return None
+        return Composite.from_weight_fraction(
+            fibre, matrix, frac, void_fraction=void, inclusion=inclusion,  # type: ignore[arg-type]
+            aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
+        )
 
 
 def _ply(ctx: _Ctx, value: Any) -> tuple[Material | None, Strengths | None, str]:

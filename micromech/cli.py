@@ -98,7 +98,7 @@ def _material_json(m: Any, registry: Any) -> dict[str, Any]:
 @click.argument("key", required=False)
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
 @click.option(
-    "--registry", "paths", multiple=True, type=click.Path(exists=True),
+    "--registry", "paths", multiple=True, type=click.Path(),
     help="Extra registry file or folder (repeatable); MICROMECH_MATERIALS is also read.",
 )
 def materials_command(key: str | None, as_json: bool, paths: tuple[str, ...]) -> None:
@@ -164,21 +164,28 @@ def materials_command(key: str | None, as_json: bool, paths: tuple[str, ...]) ->
 @click.argument("case_file", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
 @click.option("--plot", "plot_file", type=click.Path(dir_okay=False),
-              help="Draw each property against fibre fraction to a PNG file.")
+              help="Draw each property against fibre fraction to an image (.png, .svg, .pdf).")
 @click.option("--misalignment", type=float, default=2.0, show_default=True,
               help="Fibre misalignment for the kink-band compression estimate, degrees.")
 def estimate_command(case_file: str, as_json: bool, plot_file: str | None,
                      misalignment: float) -> None:
     """Mean-field estimates and rigorous bounds for the [composite] of CASE_FILE."""
     from micromech.case import load_case
-    from micromech.errors import CaseFileError
+    from micromech.errors import CaseFileError, InputError
     from micromech.homogenize import estimate
-    from micromech.report.estimate import estimate_table, plot_estimates
+    from micromech.report.estimate import check_plot_path, estimate_table, plot_estimates
 
+    if not misalignment > 0.0:
+        raise InputError(f"--misalignment = {misalignment!r}: the fibre misalignment must be "
+                         "positive (degrees)")
+    if plot_file is not None:
+        check_plot_path(plot_file, "--plot")
     case = load_case(case_file)
     if case.composite is None:
+        missing = [t for t, v in (("[fibre]", case.fibre), ("[matrix]", case.matrix)) if v is None]
         raise CaseFileError(
-            f"{case_file}: estimate needs [fibre], [matrix] and [composite] with a fibre fraction"
+            f"{case_file}: estimate needs [fibre], [matrix] and [composite] with a fibre fraction;"
+            f" missing: {', '.join(missing) or '[composite]'}"
         )
     est = estimate(case.composite, case=case.name, misalignment_deg=misalignment)
     if plot_file is not None:
@@ -194,6 +201,23 @@ def estimate_command(case_file: str, as_json: bool, plot_file: str | None,
 # --- laminate -------------------------------------------------------------------------------
 
 _LAMINATE_CRITERIA = ("max_stress", "max_strain", "tsai_hill", "tsai_wu", "hashin")
+
+
+def _output_path(path: str, option: str, *, image: bool = False) -> None:
+    """Refuse an output file whose folder is missing (or, for images, an unknown format).
+
+    Used by the laminate, rve and size commands, before any computing.
+    """
+    from micromech.errors import InputError
+
+    if image:
+        from micromech.laminate.envelope import check_image_path
+
+        check_image_path(path, option)
+        return
+    folder = os.path.dirname(os.path.abspath(path))
+    if not os.path.isdir(folder):
+        raise InputError(f"{option} = {path!r}: folder {folder!r} does not exist")
 
 
 @cli.command("laminate")
@@ -219,6 +243,8 @@ def laminate_command(
     from micromech.laminate import analyse_laminate, failure_envelope, laminate_from_case
     from micromech.report.laminate import laminate_json, laminate_table
 
+    if plot is not None:
+        _output_path(plot, "--plot", image=True)
     case = load_case(case_file)
     lam = laminate_from_case(case)
     spec = case.laminate
@@ -246,19 +272,16 @@ def laminate_command(
 
         ax = envelopes[0].axes
         units = {"N/m": (1e-3, "N/mm"), "N": (1.0, "N*m/m"), "Pa": (1e-6, "MPa")}
-        (fx, ux), (fy, uy) = (units[ENVELOPE_AXES[a]] for a in ax)
-        click.echo(f"\nFirst-ply failure envelope in {ax[0]} ({ux}), {ax[1]} ({uy}): "
-                   "intercepts on the axes")
-        click.echo(f"  {'criterion':<12}{'+' + ax[0]:>12}{'-' + ax[0]:>12}{'+' + ax[1]:>12}"
-                   f"{'-' + ax[1]:>12}")
+        factors = {a: units[ENVELOPE_AXES[a]] for a in ax}
+        click.echo(f"\nFirst-ply failure envelope in {ax[0]} ({factors[ax[0]][1]}), {ax[1]} "
+                   f"({factors[ax[1]][1]}): intercepts on the axes")
+        keys = (f"+{ax[0]}", f"-{ax[0]}", f"+{ax[1]}", f"-{ax[1]}")
+        click.echo(f"  {'criterion':<12}" + "".join(f"{k:>12}" for k in keys))
         for e in envelopes:
-            n = len(e.phi) - 1
-            idx = [0, n // 2, n // 4, 3 * n // 4] if n % 4 == 0 else None
-            if idx is None:
-                vals = ["-"] * 4
-            else:
-                raw = [e.x[idx[0]] * fx, e.x[idx[1]] * fx, e.y[idx[2]] * fy, e.y[idx[3]] * fy]
-                vals = [f"{v:.4g}" if abs(v) != float("inf") else "never" for v in raw]
+            vals = []
+            for k in keys:
+                v = e.intercepts[k] * factors[k[1:]][0]
+                vals.append(f"{v:.4g}" if abs(v) != float("inf") else "never")
             click.echo(f"  {e.criterion:<12}" + "".join(f"{v:>12}" for v in vals))
         if plot is not None:
             click.echo(f"  plot written to {plot}")
@@ -355,6 +378,7 @@ def rve_command(
 
     from micromech.errors import InputError
     from micromech.rve import geometry as geo
+    from micromech.units import parse_quantity
 
     vf, d, arrangement = _rve_inputs(case, fraction, diameter)
     method = packing or arrangement or "random"
@@ -364,6 +388,13 @@ def rve_command(
             _rve_refuse_same(target, case, option, "the input case file")
     if out is not None and plot is not None:
         _rve_refuse_same(plot, out, "--plot", "also the --out file")
+    # check what is written before the (possibly long) packing runs
+    if out is not None:
+        _output_path(out, "--out")
+        if not out.lower().endswith(".json"):
+            parse_quantity(f"1 {unit}", "length", "--unit")  # raises for a unit that is no length
+    if plot is not None:
+        _output_path(plot, "--plot", image=True)
     if method == "random":
         arr = geo.random_cell(vf, d, n_fibres=fibres, cell_size=cell_size, min_gap=min_gap,
                               seed=seed)
@@ -498,6 +529,8 @@ def size_command(
         raise InputError("size: give at least one --target (e.g. --target E2=9GPa) or "
                          "--uncertainty N")
     pct = _size_percentiles(percentiles)
+    if plot_file is not None:
+        _output_path(plot_file, "--plot", image=True)
     case = load_case(case_file)
     result = None
     if targets:
@@ -554,10 +587,14 @@ def size_command(
 @click.option("--tolerance", "tolerances", multiple=True, metavar="NAME=VALUE",
               help="Relative tolerance around the best estimate, e.g. E2=0.2 or E2=20% "
                    "(repeatable); replaces the default band of that property.")
+@click.option("--strain-range", "strain_range", metavar="LOW,HIGH",
+              help="Strain range of the modulus fit of every history, e.g. 0.0005,0.0025 "
+                   "(replaces the automatic search and the case's ranges).")
 @click.option("--all-reasons", is_flag=True,
               help="Also list the reasons of the consistent properties.")
 def check_command(case_file: str, as_json: bool, report_dir: str | None, offset: float | None,
-                  tolerances: tuple[str, ...], all_reasons: bool) -> None:
+                  tolerances: tuple[str, ...], strain_range: str | None,
+                  all_reasons: bool) -> None:
     """Grade the simulated RVE results of CASE_FILE against bounds and estimates.
 
     Each property is consistent, suspect (outside the expected band or a consistency check)
@@ -567,7 +604,8 @@ def check_command(case_file: str, as_json: bool, report_dir: str | None, offset:
     from micromech.report.check import format_check_text, write_check_report
     from micromech.rve.check import check_case
 
-    result = check_case(case_file, offset=offset, tolerances=list(tolerances))
+    result = check_case(case_file, offset=offset, tolerances=list(tolerances),
+                        strain_range=_check_range_option(strain_range))
     written = write_check_report(result, report_dir) if report_dir is not None else None
     if as_json:
         obj = result.as_dict()
@@ -580,6 +618,21 @@ def check_command(case_file: str, as_json: bool, report_dir: str | None, offset:
             click.echo(f"report written to {written['html']} and {written['markdown']}")
     if result.exit_code:
         click.get_current_context().exit(result.exit_code)
+
+
+def _check_range_option(text: str | None) -> tuple[float, float] | None:
+    """Read ``--strain-range LOW,HIGH`` (plain strains)."""
+    from micromech.errors import InputError
+
+    if text is None:
+        return None
+    parts = [p.strip() for p in text.split(",")]
+    try:
+        lo, hi = (float(p) for p in parts)
+    except ValueError:
+        raise InputError(f"--strain-range: {text!r} must be two strains LOW,HIGH, e.g. "
+                         "0.0005,0.0025") from None
+    return lo, hi
 
 
 # --- demo -----------------------------------------------------------------------------------

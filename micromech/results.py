@@ -16,10 +16,21 @@ Array = NDArray[np.float64]
 
 #: The nine engineering constants every result carries, in the JSON contract's order.
 CONSTANT_NAMES: tuple[str, ...] = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")
+_ARRAY_FIELDS: frozenset[str] = frozenset((*CONSTANT_NAMES, "alpha1", "alpha2", "alpha3"))
 
 
 def _arr(x: ArrayLike | None) -> Array | None:
     return None if x is None else np.asarray(x, dtype=np.float64)
+
+
+def _json_value(v: Array) -> Any:
+    """Return a float (or nested lists) with every NaN or infinity replaced by None (null)."""
+    if v.ndim == 0:
+        x = float(v)
+        return x if np.isfinite(x) else None
+    out = v.astype(object)
+    out[~np.isfinite(v)] = None
+    return out.tolist()
 
 
 @dataclass(frozen=True, eq=False)
@@ -165,12 +176,20 @@ class ElasticConstants:
         -------
         ndarray, shape (..., 6, 6)
             The compliance.
+
+        Raises
+        ------
+        InputError
+            If a constant is unknown (None), naming the missing ones.
         """
         if not self.complete:
             missing = [k for k in CONSTANT_NAMES if getattr(self, k) is None]
             from micromech.errors import InputError
 
-            raise InputError(f"{self.model or 'result'}: stiffness needs {', '.join(missing)}")
+            raise InputError(
+                f"{self.model or 'result'}: the 6x6 stiffness needs all nine constants; "
+                f"missing {', '.join(missing)}"
+            )
         return tensors.orthotropic_compliance(
             self.E1, self.E2, self.E3, self.G23, self.G13, self.G12,  # type: ignore[arg-type]
             self.nu23, self.nu13, self.nu12,  # type: ignore[arg-type]
@@ -187,11 +206,14 @@ class ElasticConstants:
         Returns
         -------
         ndarray or None
-            The value.
+            The value; None for a constant the model does not give or an unknown name.
         """
         if name in self.extra:
             return _arr(self.extra[name])
-        return getattr(self, name, None)
+        if name in _ARRAY_FIELDS:
+            value: Array | None = getattr(self, name)
+            return value
+        return None
 
     def with_model(self, model: str, source: str) -> ElasticConstants:
         """Return a copy relabelled with another model key and source.
@@ -214,11 +236,17 @@ class ElasticConstants:
         Returns
         -------
         dict
-            Keys E1 ... nu23, alpha1, alpha2 and source.
+            Keys E1 ... nu23, alpha1, alpha2 and source. A value that is not finite (a model
+            that gives no number at that point) is None, so the output is strict JSON.
+
+        Examples
+        --------
+        >>> ElasticConstants.transversely_isotropic(140e9, 9e9, 0.3, 5e9, nu23=0.4).as_dict()["E3"]
+        9000000000.0
         """
         out: dict[str, Any] = {}
         for k in (*CONSTANT_NAMES, "alpha1", "alpha2"):
             v = getattr(self, k)
-            out[k] = None if v is None else v.tolist()
+            out[k] = None if v is None else _json_value(v)
         out["source"] = self.source
         return out

@@ -53,6 +53,33 @@ def _f(x: ArrayLike) -> Array:
     return np.asarray(x, dtype=np.float64)
 
 
+def _six_by_six(C: ArrayLike, name: str) -> Array:
+    a = _f(C)
+    if a.ndim < 2 or a.shape[-2:] != (6, 6):
+        raise InputError(f"{name}: expected shape (..., 6, 6), got {a.shape}")
+    return a
+
+
+#: Largest |R R^T - I| accepted for a rotation matrix.
+ROTATION_ATOL = 1e-8
+
+
+def _rotation(R: ArrayLike) -> Array:
+    """Check that R has shape (..., 3, 3) and is orthogonal; return it as a float array."""
+    a = _f(R)
+    if a.ndim < 2 or a.shape[-2:] != (3, 3):
+        raise InputError(f"R: expected rotation matrices of shape (..., 3, 3), got {a.shape}")
+    dev = np.max(np.abs(a @ np.swapaxes(a, -1, -2) - np.eye(3)), axis=(-2, -1))
+    bad = ~(dev <= ROTATION_ATOL)
+    if np.any(bad):
+        idx = _first(bad)
+        raise InputError(
+            f"R{_at(idx)} is not a rotation: max |R R^T - I| = {float(dev[idx]):.3g} exceeds "
+            f"{ROTATION_ATOL:g} (rule: R must be orthogonal)"
+        )
+    return a
+
+
 def orthotropic_compliance(
     E1: ArrayLike,
     E2: ArrayLike,
@@ -87,7 +114,7 @@ def orthotropic_compliance(
     Examples
     --------
     >>> S = orthotropic_compliance(140e9, 10e9, 10e9, 3.5e9, 5e9, 5e9, 0.45, 0.3, 0.3)
-    >>> round(1 / S[0, 0] / 1e9, 6)
+    >>> round(float(1 / S[0, 0]) / 1e9, 6)
     140.0
     """
     E1, E2, E3, G23, G13, G12, nu23, nu13, nu12 = np.broadcast_arrays(
@@ -259,13 +286,31 @@ def engineering_constants(C: ArrayLike) -> dict[str, Array]:
         orthotropic in these axes the coupling terms are ignored: the constants are the
         apparent ones under uniaxial stress along each axis.
 
+    Raises
+    ------
+    InputError
+        If C does not have shape (..., 6, 6).
+    InvalidMaterialError
+        If a matrix is singular (no compliance).
+
+    References
+    ----------
+    Jones (1999), Eq. (2.21): the compliance entries in engineering constants.
+
     Examples
     --------
     >>> c = engineering_constants(isotropic_stiffness(70e9, 0.3))
     >>> round(float(c["E1"]) / 1e9, 9), round(float(c["nu12"]), 12)
     (70.0, 0.3)
     """
-    S = np.linalg.inv(_f(C))
+    Ca = _six_by_six(C, "stiffness")
+    try:
+        S = np.linalg.inv(Ca)
+    except np.linalg.LinAlgError:
+        raise InvalidMaterialError(
+            "stiffness is singular: its engineering constants are undefined (rule: a stiffness "
+            "must be invertible)"
+        ) from None
     d = np.diagonal(S, axis1=-2, axis2=-1)
     return {
         "E1": 1.0 / d[..., 0],
@@ -333,11 +378,22 @@ def bond_matrix(R: ArrayLike) -> Array:
         M with sigma_new = M @ sigma_old (Voigt order 11, 22, 33, 23, 13, 12). Stiffness rotates
         as M C M^T and compliance as M^-T S M^-1 = N S N^T with N = M^-T.
 
+    Raises
+    ------
+    InputError
+        If R does not have shape (..., 3, 3) or is not orthogonal.
+
     References
     ----------
     Auld (1973), Ch. 3, Eq. (3.32).
+
+    Examples
+    --------
+    >>> M = bond_matrix(rotation_about_axis(3, 90.0))
+    >>> [int(round(x)) for x in M[:3, :3].diagonal()]
+    [0, 0, 1]
     """
-    R = _f(R)
+    R = _rotation(R)
     M = np.empty(R.shape[:-2] + (6, 6))
     for a, (i, j) in enumerate(VOIGT_PAIRS):
         for b, (k, l) in enumerate(VOIGT_PAIRS):
@@ -363,6 +419,15 @@ def rotate_stiffness(C: ArrayLike, R: ArrayLike) -> Array:
     ndarray, shape (..., 6, 6)
         The rotated stiffness.
 
+    Raises
+    ------
+    InputError
+        If C is not (..., 6, 6), or R not a (..., 3, 3) rotation.
+
+    References
+    ----------
+    Auld (1973), Ch. 3: C' = M C M^T with the Bond matrix M.
+
     Examples
     --------
     >>> C = transversely_isotropic_stiffness(140e9, 10e9, 0.3, 5e9, 0.4)
@@ -370,8 +435,9 @@ def rotate_stiffness(C: ArrayLike, R: ArrayLike) -> Array:
     >>> round(float(engineering_constants(Cr)["E2"]) / 1e9, 6)
     140.0
     """
+    Ca = _six_by_six(C, "stiffness")
     M = bond_matrix(R)
-    return M @ _f(C) @ np.swapaxes(M, -1, -2)
+    return M @ Ca @ np.swapaxes(M, -1, -2)
 
 
 def rotate_compliance(S: ArrayLike, R: ArrayLike) -> Array:
@@ -388,13 +454,23 @@ def rotate_compliance(S: ArrayLike, R: ArrayLike) -> Array:
     -------
     ndarray, shape (..., 6, 6)
         The rotated compliance.
+
+    Raises
+    ------
+    InputError
+        If S is not (..., 6, 6), or R not a (..., 3, 3) rotation.
+
+    References
+    ----------
+    Auld (1973), Ch. 3: strains rotate with N = M^-T.
     """
     # For a proper rotation the strain transformation N = M^-T equals bond_matrix applied to the
     # engineering-strain form: N = D M D^-1 with D = diag(1, 1, 1, 2, 2, 2).
+    Sa = _six_by_six(S, "compliance")
     M = bond_matrix(R)
     D = np.array([1.0, 1.0, 1.0, 2.0, 2.0, 2.0])
     N = M * D[:, None] / D[None, :]
-    return N @ _f(S) @ np.swapaxes(N, -1, -2)
+    return N @ Sa @ np.swapaxes(N, -1, -2)
 
 
 def to_mandel(C: ArrayLike) -> Array:
@@ -505,6 +581,8 @@ def check_stiffness(C: ArrayLike, name: str = "stiffness", rtol: float = 1e-8) -
 
     Raises
     ------
+    InputError
+        If C does not have shape (..., 6, 6).
     InvalidMaterialError
         Naming the first offending index and the rule broken.
     """
@@ -521,7 +599,15 @@ def check_stiffness(C: ArrayLike, name: str = "stiffness", rtol: float = 1e-8) -
             f"{name}{_at(idx)} must be symmetric: relative asymmetry {float(err[idx]):.3g} "
             f"exceeds {rtol:g}"
         )
-    _raise_first(np.logical_not(is_positive_definite(C)), name, "must be positive definite")
+    pd = is_positive_definite(C)
+    if not np.all(pd):
+        idx = _first(np.logical_not(pd))
+        Ci = C[idx] if idx else C
+        w = np.linalg.eigvalsh(0.5 * (Ci + Ci.T))
+        raise InvalidMaterialError(
+            f"{name}{_at(idx)} must be positive definite: smallest eigenvalue {w[0]:.4g} is "
+            f"not above 1e-12 times the largest magnitude {abs(w[-1]):.4g}"
+        )
     return C
 
 

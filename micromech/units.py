@@ -140,9 +140,23 @@ def _parse_string(text: str, kind: str, field: str) -> float:
     si_unit = DIMENSIONS[kind][1]
     expected = (ureg.Quantity(1, si_unit) if si_unit else ureg.Quantity(1)).dimensionality
     if not hasattr(q, "dimensionality") or q.dimensionality != expected:
-        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}")
+        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}"
+                        f"{_what_it_is(q, ureg)}")
     mag = q.to(si_unit).magnitude if si_unit else q.to("dimensionless").magnitude
     return float(mag)
+
+
+def _what_it_is(q: Any, ureg: Any) -> str:
+    """Name the kind of quantity a wrongly dimensioned value is, for the error message."""
+    dim = getattr(q, "dimensionality", None)
+    if dim is None:
+        return ""
+    for kind in ("pressure", "length", "force", "force_per_length", "density", "expansion",
+                 "temperature_change", "area", "dimensionless"):
+        unit = DIMENSIONS[kind][1]
+        if (ureg.Quantity(1, unit) if unit else ureg.Quantity(1)).dimensionality == dim:
+            return f", which is {_PLAIN_WORDS[kind].split(' (')[0]}"
+    return f", of dimension {dim}"
 
 
 def to_si(value: Any, unit: str, field: str = "value") -> float:
@@ -161,8 +175,26 @@ def to_si(value: Any, unit: str, field: str = "value") -> float:
     -------
     float
         The factor-converted value in SI base units.
+
+    Raises
+    ------
+    UnitError
+        If ``value`` is not a number or ``unit`` is unknown.
+
+    Examples
+    --------
+    >>> to_si(5, "mm")
+    0.005
     """
-    return float(value) * unit_factor(unit, field)
+    if isinstance(value, bool):
+        raise UnitError(f"{field} = {value!r} is not a number (a magnitude in {unit!r} is needed)")
+    try:
+        magnitude = float(value)
+    except (TypeError, ValueError):
+        raise UnitError(
+            f"{field} = {value!r} is not a number (a magnitude in {unit!r} is needed)"
+        ) from None
+    return magnitude * unit_factor(unit, field)
 
 
 @lru_cache(maxsize=256)
@@ -180,12 +212,29 @@ def unit_factor(unit: str, field: str = "unit") -> float:
     -------
     float
         Multiply a magnitude in ``unit`` by this factor to get SI.
+
+    Raises
+    ------
+    UnitError
+        If the unit is unknown.
+
+    Notes
+    -----
+    A factor only converts differences for units with an offset zero: ``degC`` and ``degF`` are
+    read as temperature differences (``unit_factor("degC") == 1.0``), as for CTEs and delta_T.
+
+    Examples
+    --------
+    >>> unit_factor("kN")
+    1000.0
     """
     import pint
 
     ureg = _registry()
+    if not isinstance(unit, str):
+        raise UnitError(f"{field}: unit must be text such as 'mm' or 'kN', got {unit!r}")
     try:
-        q = ureg.Quantity(1.0, unit.replace("µ", "u"))
+        q = ureg.Quantity(1.0, _as_difference(unit.replace("µ", "u")))
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
         raise UnitError(f"{field}: unknown unit {unit!r}: {exc}") from None
     return float(q.to_base_units().magnitude)

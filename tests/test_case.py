@@ -146,7 +146,22 @@ def test_name_defaults_to_file_stem(tmp_path):
         == "case"
 
 
-def test_composite_is_none_without_matrix_or_fraction(tmp_path):
+def test_fraction_is_checked_even_without_both_constituents(tmp_path):
+    text = '[fibre]\nuse = "e-glass"\n[composite]\nweight_fraction = 1.2\n'
+    with pytest.raises(FractionError, match=r"case\.toml: \[composite\] weight_fraction = 1\.2 "
+                                            r"is outside \[0, 1\]"):
+        load_case(write_case(tmp_path, text, base=False))
+
+
+def test_case_module_examples_run():
+    import doctest
+
+    import micromech.case
+
+    assert doctest.testmod(micromech.case).failed == 0
+
+
+def test_composite_is_none_without_a_matrix(tmp_path):
     case = load_case(write_case(tmp_path, '[fibre]\nuse = "e-glass"\n', base=False))
     assert case.fibre is not None and case.composite is None
     case = load_case(write_case(tmp_path, '[fibre]\nuse = "e-glass"\n[composite]\n'
@@ -313,7 +328,12 @@ ERRORS = [
     ("[composite]\nvolume_fraction = 0.5\naspect_ratio = -1\n", CaseFileError,
      r"\[composite\] aspect_ratio = -1 must be positive"),
     ("[composite]\nvolume_fraction = 'half'\n", UnitError,
-     r"\[composite\] volume_fraction expects a plain number"),
+     r"case\.toml: \[composite\] volume_fraction expects a plain number"),
+    ("[composite]\nvolume_fraction = '50 MPa'\n", UnitError,  # file and table named once
+     r"^[^:]*case\.toml: \[composite\] volume_fraction expects a plain number, got '50 MPa', "
+     r"which is a pressure$"),
+    ("[composite]\ninclusion = 'continuous'\n", CaseFileError,
+     r"\[composite\] missing required key 'volume_fraction' \(or 'weight_fraction'\)"),
     ("[composite]\nvolume_fraction = nan\n", CaseFileError,
      r"\[composite\] volume_fraction = nan must be finite"),
     ("[composite]\nvolume_fraction = 0.3\ninclusion = 'spheroid'\n", InputError,

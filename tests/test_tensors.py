@@ -306,3 +306,82 @@ def test_check_stiffness_rejects_not_positive_definite():
     C = -isotropic_stiffness(3e9, 0.3)
     with pytest.raises(InvalidMaterialError, match=r"C must be positive definite"):
         check_stiffness(C, "C")
+
+
+# --- general rotations against the fourth-order tensor rule; input checks -----------------------
+
+_VOIGT = ((0, 0), (1, 1), (2, 2), (1, 2), (0, 2), (0, 1))
+
+
+def _full_tensor(C):
+    """Fourth-order C_ijkl of a Voigt stiffness (engineering shear: no factors on C)."""
+    T = np.zeros((3, 3, 3, 3))
+    for a, (i, j) in enumerate(_VOIGT):
+        for b, (k, l) in enumerate(_VOIGT):
+            for p, q in {(i, j), (j, i)}:
+                for r, s in {(k, l), (l, k)}:
+                    T[p, q, r, s] = C[a, b]
+    return T
+
+
+@st.composite
+def rotations(draw):
+    """Any proper rotation, from a random unit quaternion (Shoemake 1992, Graphics Gems III)."""
+    q = np.array([draw(st.floats(-1.0, 1.0)) for _ in range(4)])
+    if np.linalg.norm(q) < 1e-3:
+        q = np.array([1.0, 0.3, -0.2, 0.5])
+    w, x, y, z = q / np.linalg.norm(q)
+    return np.array([
+        [1 - 2 * (y * y + z * z), 2 * (x * y - w * z), 2 * (x * z + w * y)],
+        [2 * (x * y + w * z), 1 - 2 * (x * x + z * z), 2 * (y * z - w * x)],
+        [2 * (x * z - w * y), 2 * (y * z + w * x), 1 - 2 * (x * x + y * y)],
+    ])
+
+
+@SETTINGS
+@given(orthotropic_constants(), rotations())
+def test_rotation_by_any_matrix_follows_the_fourth_order_transformation_rule(c, R):
+    # C'_ijkl = R_ip R_jq R_kr R_ls C_pqrs (exact tensor transformation rule, any elasticity text)
+    C = orthotropic_stiffness(**c)
+    T = np.einsum("ip,jq,kr,ls,pqrs->ijkl", R, R, R, R, _full_tensor(C))
+    expected = np.array([[T[i, j, k, l] for (k, l) in _VOIGT] for (i, j) in _VOIGT])
+    assert rel(rotate_stiffness(C, R), expected) < 1e-12
+
+
+def test_rotation_rejects_a_matrix_that_is_not_orthogonal():
+    C = isotropic_stiffness(3e9, 0.3)
+    R = np.stack([np.eye(3), 2.0 * np.eye(3)])
+    with pytest.raises(InputError, match=r"R at index 1 is not a rotation: max \|R R\^T - I\| = 3"):
+        rotate_stiffness(C, R)
+    with pytest.raises(InputError, match=r"R is not a rotation"):
+        rotate_compliance(np.linalg.inv(C), np.ones((3, 3)))
+
+
+def test_rotation_rejects_wrong_shapes():
+    with pytest.raises(InputError, match=r"R: expected rotation matrices of shape \(\.+, 3, 3\)"):
+        bond_matrix(np.eye(2))
+    with pytest.raises(InputError, match=r"stiffness: expected shape \(\.+, 6, 6\), got \(3, 3\)"):
+        rotate_stiffness(np.eye(3), np.eye(3))
+    with pytest.raises(InputError, match=r"compliance: expected shape \(\.+, 6, 6\), got \(6,\)"):
+        rotate_compliance(np.ones(6), np.eye(3))
+
+
+def test_engineering_constants_reject_wrong_shape_and_singular_matrices():
+    with pytest.raises(InputError, match=r"stiffness: expected shape \(\.+, 6, 6\), got \(3, 3\)"):
+        engineering_constants(np.eye(3))
+    with pytest.raises(InvalidMaterialError, match="stiffness is singular"):
+        engineering_constants(np.zeros((6, 6)))
+
+
+def test_not_positive_definite_message_gives_the_smallest_eigenvalue():
+    with pytest.raises(InvalidMaterialError, match=r"C must be positive definite: smallest "
+                                                   r"eigenvalue -7\.5e\+09 is not above"):
+        check_stiffness(-isotropic_stiffness(3e9, 0.3), "C")  # -3K = -7.5 GPa for E = 3, nu = 0.3
+
+
+def test_tensor_module_examples_run():
+    import doctest
+
+    import micromech.tensors
+
+    assert doctest.testmod(micromech.tensors).failed == 0

@@ -73,9 +73,9 @@ def test_non_numeric_object_is_rejected_with_its_type():
 
 
 def test_unit_errors_are_project_errors_and_value_errors():
-    with pytest.raises(MicromechError):
+    with pytest.raises(MicromechError, match="expects a length"):
         parse_quantity("1 kg", "length")
-    with pytest.raises(ValueError):
+    with pytest.raises(ValueError, match="expects a length"):
         parse_quantity("1 kg", "length")
 
 
@@ -135,3 +135,42 @@ def test_non_finite_values_are_rejected():
     with pytest.raises(UnitError, match="finite"):
         parse_quantity("nan", "pressure", "E")
     assert math.isfinite(parse_quantity("1 GPa", "pressure", "E"))
+
+
+# --- wrong dimensions say what was given; factors of offset units; to_si input -------------------
+
+
+def test_wrong_dimension_says_what_the_value_is():
+    with pytest.raises(UnitError, match=r"E expects a pressure .*, got '7 mm', which is a length$"):
+        parse_quantity("7 mm", "pressure", "E")
+    with pytest.raises(UnitError, match=r"got '3 m/s', of dimension \[length\] / \[time\]$"):
+        parse_quantity("3 m/s", "pressure", "E")
+
+
+@pytest.mark.parametrize(
+    ("unit", "factor"),
+    # a temperature difference of 1 degC is 1 K, of 1 degF is 5/9 K (SI Brochure 9th ed.,
+    # Sec. 2.3.1; degF by definition)
+    [("degC", 1.0), ("degF", 5.0 / 9.0), ("1/degC", 1.0)],
+)
+def test_unit_factor_of_offset_units_converts_differences(unit, factor):
+    assert unit_factor(unit) == pytest.approx(factor, rel=1e-12)
+
+
+def test_unit_factor_rejects_a_non_text_unit():
+    with pytest.raises(UnitError, match=r"unit: unit must be text such as 'mm' or 'kN', got 3"):
+        unit_factor(3)  # type: ignore[arg-type]
+
+
+@pytest.mark.parametrize("value", ["x", None, True])
+def test_to_si_rejects_a_value_that_is_not_a_number(value):
+    with pytest.raises(UnitError, match=r"force = .* is not a number \(a magnitude in 'kN'"):
+        to_si(value, "kN", "force")
+
+
+def test_unit_module_examples_run():
+    import doctest
+
+    import micromech.units
+
+    assert doctest.testmod(micromech.units).failed == 0

@@ -493,6 +493,12 @@ def laminate_in_plane(
 ) -> dict[str, Array]:
     """In-plane engineering constants of a laminate of one ply material, vectorised.
 
+    The transformed stiffness of every ply is written with the stiffness invariants U1 ... U5 of
+    the ply and cos 2theta, cos 4theta, sin 2theta, sin 4theta of its angle, so A, B and D are
+    the invariants times thickness-weighted sums of these over the plies [1]_: no (N, 3, 3)
+    temporaries and no batched inverse on the common path (symmetric laminates, or
+    ``bending="restrained"``), where A^-1 is written out by cofactors.
+
     Parameters
     ----------
     E1, E2, nu12, G12 : array_like, shape (...)
@@ -518,7 +524,10 @@ def laminate_in_plane(
 
     References
     ----------
-    Kaw (2006), Eq. (2.93), Eqs. (2.103)-(2.104), Eqs. (4.28)-(4.29) and Sec. 4.5.
+    .. [1] Tsai, S. W., Pagano, N. J. (1968). Invariant properties of composite materials. In:
+       Tsai, Halpin, Pagano (eds.), *Composite Materials Workshop*, Technomic, 233-253
+       (the invariants U1 ... U5; from memory); Jones (1999), 2nd ed., Sec. 2.6.
+    .. [2] Kaw (2006), Eq. (2.93), Eqs. (4.28)-(4.29) and Sec. 4.5.
 
     Examples
     --------
@@ -526,8 +535,6 @@ def laminate_in_plane(
     >>> round(float(c["Ex"]) / 1e9, 6)
     181.0
     """
-    from micromech.laminate.clt import reduced_stiffness, transformed_reduced_stiffness
-
     if bending not in ("free", "restrained"):
         raise InputError(f"bending: expected 'free' or 'restrained', got {bending!r}")
     ang = np.asarray(angles, dtype=np.float64)
@@ -539,17 +546,54 @@ def laminate_in_plane(
         raise InputError(f"thicknesses: {t.shape} given for {n} plies")
     z = np.concatenate(([0.0], np.cumsum(t))) - t.sum() / 2.0
     h = float(t.sum())
-    Q = reduced_stiffness(E1, E2, nu12, G12)
-    A: Any = 0.0
-    B: Any = 0.0
-    D: Any = 0.0
-    for k in range(n):  # a loop over plies, not design points
-        Qb = transformed_reduced_stiffness(Q, ang[..., k])
-        z0, z1 = z[k], z[k + 1]
-        A = A + Qb * (z1 - z0)
-        B = B + Qb * ((z1**2 - z0**2) / 2.0)
-        D = D + Qb * ((z1**3 - z0**3) / 3.0)
-    coupled = bending == "free" and bool(np.any(np.abs(B) > 1e-12 * np.abs(A).max() * h))
-    a = np.linalg.inv(A - B @ np.linalg.solve(D, B) if coupled else A)
-    return {"Ex": 1.0 / (h * a[..., 0, 0]), "Ey": 1.0 / (h * a[..., 1, 1]),
-            "Gxy": 1.0 / (h * a[..., 2, 2]), "nuxy": -a[..., 0, 1] / a[..., 0, 0]}
+    # reduced stiffness (Kaw 2006, Eq. 2.93) and its invariants (Tsai and Pagano 1968)
+    e1, e2, v12, g12 = (np.asarray(x, dtype=np.float64) for x in (E1, E2, nu12, G12))
+    d = 1.0 - v12 * v12 * e2 / e1
+    q11, q22, q12, q66 = e1 / d, e2 / d, v12 * e2 / d, g12 + 0.0 * d
+    U1 = (3.0 * q11 + 3.0 * q22 + 2.0 * q12 + 4.0 * q66) / 8.0
+    U2 = (q11 - q22) / 2.0
+    U3 = (q11 + q22 - 2.0 * q12 - 4.0 * q66) / 8.0
+    U4 = (q11 + q22 + 6.0 * q12 - 4.0 * q66) / 8.0
+    U5 = (q11 + q22 - 2.0 * q12 + 4.0 * q66) / 8.0
+    r = np.deg2rad(ang)
+    trig = np.stack([np.cos(2 * r), np.cos(4 * r), np.sin(2 * r), np.sin(4 * r)])  # (4, ..., n)
+    weights = (t, (z[1:] ** 2 - z[:-1] ** 2) / 2.0, (z[1:] ** 3 - z[:-1] ** 3) / 3.0)
+
+    def block(w: Array) -> tuple[Array, ...]:
+        """Entries 11, 22, 12, 66, 16, 26 of sum_k w_k Qbar_k."""
+        w0 = float(w.sum())
+        c2, c4, s2, s4 = (trig * w).sum(-1)
+        return (U1 * w0 + U2 * c2 + U3 * c4, U1 * w0 - U2 * c2 + U3 * c4, U4 * w0 - U3 * c4,
+                U5 * w0 - U3 * c4, U2 / 2.0 * s2 + U3 * s4, U2 / 2.0 * s2 - U3 * s4)
+
+    A = block(weights[0])
+    B = block(weights[1])
+    scale = max(float(np.max(np.abs(a))) for a in A)
+    coupled = bending == "free" and any(bool(np.any(np.abs(b) > 1e-12 * scale * h)) for b in B)
+    if coupled:
+        D = block(weights[2])
+        Am, Bm, Dm = (_sym3(*m) for m in (A, B, D))
+        Ared = Am - Bm @ np.linalg.solve(Dm, Bm)
+        A = (Ared[..., 0, 0], Ared[..., 1, 1], Ared[..., 0, 1], Ared[..., 2, 2],
+             Ared[..., 0, 2], Ared[..., 1, 2])
+    a11, a22, a12, a66 = _inverse_entries(*A)
+    return {"Ex": 1.0 / (h * a11), "Ey": 1.0 / (h * a22), "Gxy": 1.0 / (h * a66),
+            "nuxy": -a12 / a11}
+
+
+def _sym3(m11: Array, m22: Array, m12: Array, m66: Array, m16: Array, m26: Array) -> Array:
+    """Assemble a symmetric (..., 3, 3) matrix in the order 1, 2, 6 from its entries."""
+    m11, m22, m12, m66, m16, m26 = np.broadcast_arrays(m11, m22, m12, m66, m16, m26)
+    return np.stack([np.stack([m11, m12, m16], -1), np.stack([m12, m22, m26], -1),
+                     np.stack([m16, m26, m66], -1)], -2)
+
+
+def _inverse_entries(
+    m11: Array, m22: Array, m12: Array, m66: Array, m16: Array, m26: Array
+) -> tuple[Array, Array, Array, Array]:
+    """Entries 11, 22, 12, 66 of the inverse of a symmetric 3x3 matrix, by cofactors."""
+    c11 = m22 * m66 - m26 * m26
+    c12 = m16 * m26 - m12 * m66
+    c16 = m12 * m26 - m22 * m16
+    det = m11 * c11 + m12 * c12 + m16 * c16
+    return c11 / det, (m11 * m66 - m16 * m16) / det, c12 / det, (m11 * m22 - m12 * m12) / det

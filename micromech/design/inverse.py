@@ -29,7 +29,7 @@ References
 from __future__ import annotations
 
 from collections.abc import Callable, Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Any, Literal
 
 import numpy as np
@@ -45,6 +45,7 @@ from micromech.design.roots import (
 )
 from micromech.design.targets import SizingTarget, format_value
 from micromech.errors import InputError
+from micromech.safety import CAUTION
 
 __all__ = [
     "ForwardModel",
@@ -391,9 +392,7 @@ class SizingResult:
     bounds_window: tuple[FractionInterval, ...] | None
     status: Literal["met_by_all_models", "met_by_some_models", "not_met"]
     message: str
-    caution: str = field(default=(
-        "Estimates and bounds are not design allowables; qualified test data, the applicable "
-        "codes and a licensed engineer decide."))
+    caution: str = CAUTION
 
     def __getitem__(self, name: str) -> TargetSizing:
         """Return the sizing of the target with this property name."""

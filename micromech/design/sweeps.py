@@ -45,6 +45,7 @@ from micromech.design.inverse import property_values
 from micromech.design.sizing import as_constituents
 from micromech.design.targets import property_kind, property_unit
 from micromech.errors import InputError
+from micromech.safety import CAUTION
 
 __all__ = ["Sweep", "sweep", "sweep_fraction", "sweep_angle", "sweep_ply_share",
            "LAMINATE_NAMES"]
@@ -52,8 +53,6 @@ __all__ = ["Sweep", "sweep", "sweep_fraction", "sweep_angle", "sweep_ply_share",
 Array = NDArray[np.float64]
 #: Properties an angle or ply-share sweep gives.
 LAMINATE_NAMES: tuple[str, ...] = ("Ex", "Ey", "Gxy", "nuxy")
-_CAUTION = ("Estimates and bounds are not design allowables; qualified test data, the applicable "
-            "codes and a licensed engineer decide.")
 
 
 @dataclass(frozen=True, eq=False)
@@ -85,7 +84,7 @@ class Sweep:
     lower: Array | None = None
     upper: Array | None = None
     fixed: dict[str, Any] = field(default_factory=dict)
-    caution: str = _CAUTION
+    caution: str = CAUTION
 
     @property
     def unit(self) -> tuple[str, float]:
@@ -390,7 +389,7 @@ def sweep_angle(
 
 def _cross_ply(k: Any, p: Array) -> dict[str, Array]:
     """In-plane constants of a symmetric 0/90 laminate with a share p of 0-degree plies."""
-    from micromech.laminate.clt import reduced_stiffness, transformed_reduced_stiffness
+    from micromech.laminate.plane import reduced_stiffness, transformed_reduced_stiffness
 
     Q0 = reduced_stiffness(k.E1, k.E2, k.nu12, k.G12)
     Q90 = transformed_reduced_stiffness(Q0, 90.0)

@@ -48,6 +48,9 @@ LAMINATE_PROPERTIES: tuple[str, ...] = ("Ex", "Ey", "Gxy", "nuxy")
 _TARGET = re.compile(r"^\s*([A-Za-z][A-Za-z0-9_]*(?:\s*/\s*[A-Za-z][A-Za-z0-9_]*)?)\s*"
                      r"(>=|<=|==|=)\s*(.+?)\s*$")
 
+# kinds whose values (and ratios of them) are positive
+_POSITIVE_KINDS = ("pressure", "density")
+
 # display unit per kind: (label, SI per display unit)
 _DISPLAY: dict[str, tuple[str, float]] = {
     "pressure": ("GPa", 1e9),
@@ -214,8 +217,9 @@ class SizingTarget:
     Raises
     ------
     InputError
-        If the name is unknown, the relation is not one of the three forms or the value is not
-        finite.
+        If the name is unknown, the relation is not one of the three forms, the value is not
+        finite, a modulus or density (or a ratio of them) is not positive, or a weight fraction
+        lies outside [0, 1].
 
     Examples
     --------
@@ -239,6 +243,14 @@ class SizingTarget:
         v = float(self.value)
         if not v == v or v in (float("inf"), float("-inf")):
             raise InputError(f"target {self.name}: value {self.value!r} must be finite")
+        kinds = [k for k in property_kind(self.name) if k is not None]
+        if all(k in _POSITIVE_KINDS for k in kinds) and not v > 0.0:
+            raise InputError(
+                f"target {self.name}: value {format_value(self.name, v)} must be positive "
+                "(moduli, densities and their ratios are positive)"
+            )
+        if self.name == "weight_fraction" and not 0.0 <= v <= 1.0:
+            raise InputError(f"target weight_fraction: value {v:g} must lie in [0, 1]")
         object.__setattr__(self, "value", v)
 
     @classmethod

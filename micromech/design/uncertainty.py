@@ -47,6 +47,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
+from micromech.safety import CAUTION
 
 __all__ = [
     "Uncertain",
@@ -60,8 +61,6 @@ Array = NDArray[np.float64]
 Distribution = Literal["normal", "lognormal"]
 #: Percentiles reported by default.
 DEFAULT_PERCENTILES: tuple[float, ...] = (5.0, 50.0, 95.0)
-_CAUTION = ("Estimates and bounds are not design allowables; qualified test data, the applicable "
-            "codes and a licensed engineer decide.")
 
 
 @dataclass(frozen=True)
@@ -250,7 +249,7 @@ class MonteCarloResult:
     rejected: int
     samples: dict[str, Array] | None = None
     model: str = ""
-    caution: str = field(default=_CAUTION)
+    caution: str = field(default=CAUTION)
 
     def __getitem__(self, name: str) -> Statistics:
         """Return the summary of an output."""
@@ -279,10 +278,13 @@ def _as_uncertain(name: str, u: Uncertain | float) -> Uncertain:
     if isinstance(u, Uncertain):
         return u
     try:
-        return Uncertain(float(u))
+        value = float(u)
     except (TypeError, ValueError):
         raise InputError(f"input {name!r}: expected an Uncertain or a number, got "
                          f"{type(u).__name__}") from None
+    if not math.isfinite(value):
+        raise InputError(f"input {name!r}: fixed value {value!r} must be finite")
+    return Uncertain(value)
 
 
 def _draw(

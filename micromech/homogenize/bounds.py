@@ -83,6 +83,15 @@ HS_FIBRE_SOURCE = ("Hill (1964) and Hashin (1965): bounds on k23, G12, G23, E1, 
 HS_SPHEROID_SOURCE = "Willis (1977) Hashin-Shtrikman bounds for aligned spheroidal statistics"
 
 
+def _anisotropy(f: Any) -> str:
+    """Describe a fibre's axial and transverse constants (first point of an array) for messages."""
+    def first(x: Any) -> float:
+        return float(np.ravel(x)[0])
+
+    return (f"E1 = {first(f.E1):.4g} Pa, E2 = {first(f.E2):.4g} Pa, nu12 = {first(f.nu12):.4g}, "
+            f"nu23 = {first(f.nu23):.4g}, G12 = {first(f.G12):.4g} Pa")
+
+
 def _phase_fractions(fractions: ArrayLike, n: int) -> Array:
     c = np.asarray(fractions, dtype=np.float64)
     if c.shape[:1] != (n,):
@@ -163,6 +172,13 @@ def reuss_bound(stiffnesses: ArrayLike, fractions: ArrayLike) -> Array:
     References
     ----------
     Reuss (1929); Hill (1952), Sec. 3.
+
+    Examples
+    --------
+    >>> from micromech.tensors import isotropic_stiffness
+    >>> C = reuss_bound([isotropic_stiffness(70e9, 0.3), isotropic_stiffness(3e9, 0.3)], [0.5, 0.5])
+    >>> round(float(C[3, 3]) / 1e9, 4)  # 1 / (0.5 / (70 / 2.6) + 0.5 / (3 / 2.6)) GPa
+    2.2129
     """
     C = np.asarray(stiffnesses, dtype=np.float64)
     if C.ndim < 3 or C.shape[-2:] != (6, 6):
@@ -202,6 +218,13 @@ def voigt_reuss(
     References
     ----------
     Voigt (1889); Reuss (1929); Hill (1952).
+
+    Examples
+    --------
+    >>> from micromech.homogenize import FibrePhase, MatrixPhase
+    >>> V, R = voigt_reuss(FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35), 0.6)
+    >>> round(float(V.G12) / 1e9, 4), round(float(R.G12) / 1e9, 4)
+    (18.2234, 3.0404)
     """
     f, m = cm.phases(fibre, matrix)
     c = cm.fraction(vf)
@@ -311,12 +334,19 @@ def hashin_shtrikman(
     References
     ----------
     Hashin and Shtrikman (1963); Walpole (1966); Levin (1967).
+
+    Examples
+    --------
+    >>> from micromech.homogenize import FibrePhase, MatrixPhase
+    >>> lo, hi = hashin_shtrikman(FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35), 0.3)
+    >>> round(float(lo.extra["K"]) / 1e9, 3), round(float(hi.extra["K"]) / 1e9, 3)
+    (5.885, 11.057)
     """
     f, m = cm.phases(fibre, matrix)
     if not f.is_isotropic:
         raise InvalidMaterialError(
-            "hashin_shtrikman: the isotropic bounds need an isotropic inclusion; the fibre has "
-            f"E1 = {f.E1!r}, E2 = {f.E2!r}"
+            "hashin_shtrikman: the isotropic bounds need an isotropic inclusion (rule: E1 = E2, "
+            f"nu12 = nu23, G12 = E1 / (2 (1 + nu12))); the fibre has {_anisotropy(f)}"
         )
     c = cm.fraction(vf)
     Kf = f.E1 / (3.0 * (1.0 - 2.0 * f.nu12))
@@ -494,12 +524,20 @@ def hashin_shtrikman_spheroid(
     ----------
     Willis (1977), Eq. 4.11 form (from memory); Walpole (1966) for the choice of comparison
     moduli.
+
+    Examples
+    --------
+    >>> from micromech.homogenize import FibrePhase, MatrixPhase
+    >>> f, m = FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35)
+    >>> lo, hi = hashin_shtrikman_spheroid(f, m, 0.2, 5.0)
+    >>> round(float(lo.E1) / 1e9, 3), round(float(hi.E1) / 1e9, 3)
+    (8.402, 16.129)
     """
     f, m = cm.phases(fibre, matrix)
     if not f.is_isotropic:
         raise InvalidMaterialError(
-            "hashin_shtrikman_spheroid: needs an isotropic inclusion; the fibre has "
-            f"E1 = {f.E1!r}, E2 = {f.E2!r}"
+            "hashin_shtrikman_spheroid: needs an isotropic inclusion (rule: E1 = E2, "
+            f"nu12 = nu23, G12 = E1 / (2 (1 + nu12))); the fibre has {_anisotropy(f)}"
         )
     c = cm.fraction(vf)
     d = 1.0 - c

@@ -206,6 +206,11 @@ def eshelby_sphere(nu: ArrayLike) -> W.TI:
     References
     ----------
     Eshelby (1957); Mura (1987), Eq. 11.21.
+
+    Examples
+    --------
+    >>> [round(float(x), 6) for x in eshelby_sphere(0.3)]
+    [0.571429, 0.52381, 0.067344, 0.067344, 0.47619, 0.47619]
     """
     nu = np.asarray(nu, dtype=np.float64)
     a = (1.0 + nu) / (3.0 * (1.0 - nu))
@@ -234,6 +239,11 @@ def eshelby_cylinder(nu: ArrayLike) -> W.TI:
     References
     ----------
     Mura (1987), Eq. 11.22 with a1 -> infinity.
+
+    Examples
+    --------
+    >>> [round(float(x), 6) for x in eshelby_cylinder(0.25)]
+    [0.666667, 0.0, 0.235702, 0.0, 0.666667, 0.5]
     """
     nu = np.asarray(nu, dtype=np.float64)
     r = 1.0 / (1.0 - nu)

@@ -101,8 +101,9 @@ class Estimates(Mapping[str, ElasticConstants]):
         """Tightest rigorous bounds on one constant, or None where none is known.
 
         Moduli (E1, E2, E3, G12, G13, G23, k23) take the larger of the Reuss and lower
-        Hashin-Shtrikman values and the smaller of the Voigt and upper ones; nu12 and the CTEs
-        only have the Hashin-Shtrikman-type bounds of aligned fibres.
+        Hashin-Shtrikman values and the smaller of the Voigt and upper ones; nu12 is bounded
+        for aligned continuous fibres only (Hill 1964), the CTEs for aligned continuous fibres
+        and for spheres (Levin's relation with the bounds on k23 or K, Rosen and Hashin 1970).
 
         Parameters
         ----------
@@ -116,10 +117,11 @@ class Estimates(Mapping[str, ElasticConstants]):
         """
         lows: tuple[str, ...]
         ups: tuple[str, ...]
+        inclusion = getattr(self.composite, "inclusion", "")
         if name in _MODULI:
             lows, ups = ("reuss", "hashin_shtrikman_lower"), ("voigt", "hashin_shtrikman_upper")
-        elif name in ("nu12", "nu13", "alpha1", "alpha2", "alpha3") and (
-            getattr(self.composite, "inclusion", "") == "continuous"
+        elif (name in ("nu12", "nu13") and inclusion == "continuous") or (
+            name in ("alpha1", "alpha2", "alpha3") and inclusion in ("continuous", "sphere")
         ):
             lows, ups = ("hashin_shtrikman_lower",), ("hashin_shtrikman_upper",)
         else:
@@ -191,6 +193,13 @@ def estimate(
     ------
     InvalidMaterialError
         If the fibre or matrix constants are inadmissible.
+
+    References
+    ----------
+    Each result names its model's source in ``source`` (see the model functions): Voigt (1889),
+    Reuss (1929), Hill (1952, 1964), Hashin and Shtrikman (1963), Hashin (1965), Willis (1977),
+    Halpin and Kardos (1976), Chamis (1983), Hashin and Rosen (1964), Mori and Tanaka (1973),
+    Benveniste (1987), Schapery (1968), Levin (1967).
 
     Examples
     --------

@@ -133,6 +133,13 @@ def halpin_tsai(
     References
     ----------
     Halpin and Kardos (1976).
+
+    Examples
+    --------
+    >>> from micromech.homogenize import FibrePhase, MatrixPhase
+    >>> r = halpin_tsai(FibrePhase.isotropic(72e9, 0.22), MatrixPhase(3.5e9, 0.35), 0.6)
+    >>> round(float(r.E2) / 1e9, 3), round(float(r.G12) / 1e9, 3)
+    (14.887, 4.459)
     """
     f, m = cm.phases(fibre, matrix)
     c = cm.fraction(vf)

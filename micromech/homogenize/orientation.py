@@ -20,6 +20,8 @@ References
 .. [2] Benveniste, Y. (1987). A new approach to the application of Mori-Tanaka's theory in
    composite materials. *Mech. Mater.* 6, 147-157 (orientation averages of the concentration
    tensors).
+.. [3] Advani, S. G., Tucker, C. L. (1987). The use of tensors to describe and predict fiber
+   orientation in short fiber composites. *J. Rheol.* 31, 751-784.
 """
 
 from __future__ import annotations
@@ -113,6 +115,10 @@ def average_planar(T: W.TI) -> W.TI:
     -------
     walpole.TI
         The in-plane average, axis = normal of the plane.
+
+    References
+    ----------
+    Advani and Tucker (1987) (orientation averaging); Walpole (1981), Sec. 3 (the basis).
     """
     M = _planar_map()
     comps = tuple(T)
@@ -138,6 +144,10 @@ def average_3d(T: W.TI) -> W.TI:
     -------
     walpole.TI
         ``alpha J + beta K`` in Walpole components (valid about any axis).
+
+    References
+    ----------
+    Walpole (1981), Sec. 5 (isotropic projections); Advani and Tucker (1987).
     """
     alpha = (2.0 * T.c + T.d + W.SQ2 * (T.e + T.f)) / 3.0
     beta = (T.c + T.d + 2.0 * T.g + 2.0 * T.h - alpha) / 5.0

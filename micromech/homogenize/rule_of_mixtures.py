@@ -47,6 +47,15 @@ def mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
     -------
     ndarray, shape (...)
         The volume average.
+
+    References
+    ----------
+    Voigt (1889): uniform strain.
+
+    Examples
+    --------
+    >>> float(mix(0.25, 8.0, 4.0))
+    5.0
     """
     c = cm.fraction(vf)
     return np.asarray(c * np.asarray(value_f, float) + (1.0 - c) * np.asarray(value_m, float))
@@ -66,6 +75,15 @@ def inverse_mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
     -------
     ndarray, shape (...)
         The harmonic volume average.
+
+    References
+    ----------
+    Reuss (1929): uniform stress.
+
+    Examples
+    --------
+    >>> float(inverse_mix(0.5, 2.0, 6.0))
+    3.0
     """
     c = cm.fraction(vf)
     xf = np.asarray(value_f, dtype=np.float64)

@@ -307,6 +307,11 @@ def transverse_strength(
     References
     ----------
     Kies (1962); Kaw (2006), Sec. 3.3 (from memory).
+
+    Examples
+    --------
+    >>> round(float(transverse_strength(10.37e9, 3.4e9, 85e9, 72e6, 0.7)) / 1e6, 2)
+    20.57
     """
     ds = fibre_spacing_ratio(vf, arrangement)
     Em_ = _pos(Em, "matrix E")
@@ -341,6 +346,11 @@ def in_plane_shear_strength(
     References
     ----------
     Kaw (2006), Sec. 3.3 (from memory).
+
+    Examples
+    --------
+    >>> round(float(in_plane_shear_strength(4.0137e9, 3.4e9 / 2.6, 85e9 / 2.4, 34e6, 0.7)) / 1e6, 2)
+    9.47
     """
     ds = fibre_spacing_ratio(vf, arrangement)
     Gm_ = _pos(Gm, "matrix G")
@@ -439,6 +449,11 @@ def strength_estimates(
     ------
     InputError
         If the misalignment is not positive.
+
+    References
+    ----------
+    Each value carries its own source (see the module references): Kelly and Tyson (1965),
+    Rosen (1965), Argon (1972), Budiansky (1983), Kies (1962), Kaw (2006), Drucker (1966).
     """
     from micromech.homogenize.mori_tanaka import mori_tanaka
 

@@ -3,7 +3,9 @@
 Public names
 ------------
 - layup codes: :func:`parse_layup`, :func:`format_layup`
-- plies: :class:`PlyMaterial`, :class:`PlyStrengths`, :class:`Ply`
+- plies: :class:`PlyMaterial` (from inline constants, the registry, a material model, an
+  estimate, or a composite's constituents: :meth:`PlyMaterial.from_composite`,
+  :meth:`PlyMaterial.coerce`), :class:`PlyStrengths`, :class:`Ply`
 - classical laminate theory: :class:`Laminate`, :func:`reduced_stiffness`,
   :func:`transformed_reduced_stiffness`, :func:`stress_transformation`,
   :func:`strain_transformation`, :func:`transformed_expansion`, :func:`abd_matrices`,

@@ -1,4 +1,7 @@
-"""Classical laminate theory: Q, Q-bar, ABD, laminate constants, ply strains and stresses.
+"""Classical laminate theory: ABD, laminate constants, ply strains and stresses.
+
+The ply-level algebra (Q, transformations, Q-bar, ply CTEs in laminate axes) lives in
+:mod:`micromech.laminate.plane` and is re-exported here.
 
 Conventions. Ply angles are measured from the laminate x axis towards y (counter-clockwise
 about z), in degrees. Plies are stacked from z = -h/2 (the first ply of the code) to z = +h/2.
@@ -33,6 +36,13 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
 from micromech.laminate.layup import parse_layup
+from micromech.laminate.plane import (
+    reduced_stiffness,
+    strain_transformation,
+    stress_transformation,
+    transformed_expansion,
+    transformed_reduced_stiffness,
+)
 from micromech.laminate.ply import Ply, PlyMaterial
 from micromech.units import parse_quantity
 
@@ -70,157 +80,6 @@ _LOAD_KINDS = dict.fromkeys(LOAD_NAMES[:3], "force_per_length") | dict.fromkeys(
 
 def _f(x: ArrayLike) -> Array:
     return np.asarray(x, dtype=np.float64)
-
-
-# --- ply level ----------------------------------------------------------------------------------
-
-
-def reduced_stiffness(E1: ArrayLike, E2: ArrayLike, nu12: ArrayLike, G12: ArrayLike) -> Array:
-    """Plane-stress reduced stiffness Q of an orthotropic ply in its material axes.
-
-    Parameters
-    ----------
-    E1, E2 : array_like, shape (...)
-        Young's moduli along and across the fibres, Pa.
-    nu12 : array_like, shape (...)
-        Major Poisson ratio.
-    G12 : array_like, shape (...)
-        In-plane shear modulus, Pa.
-
-    Returns
-    -------
-    ndarray, shape (..., 3, 3)
-        Q in the order 11, 22, 12, Pa: Q11 = E1 / (1 - nu12 nu21), Q12 = nu12 E2 / (1 - nu12
-        nu21), Q22 = E2 / (1 - nu12 nu21), Q66 = G12, with nu21 = nu12 E2 / E1.
-
-    References
-    ----------
-    Kaw (2006), Eq. (2.93); Jones (1999), Sec. 2.6.
-
-    Examples
-    --------
-    >>> Q = reduced_stiffness(181e9, 10.3e9, 0.28, 7.17e9)
-    >>> round(Q[0, 1] / 1e9, 3)
-    2.897
-    """
-    E1, E2, nu12, G12 = np.broadcast_arrays(_f(E1), _f(E2), _f(nu12), _f(G12))
-    d = 1.0 - nu12 * nu12 * E2 / E1
-    Q = np.zeros(E1.shape + (3, 3))
-    Q[..., 0, 0] = E1 / d
-    Q[..., 1, 1] = E2 / d
-    Q[..., 0, 1] = Q[..., 1, 0] = nu12 * E2 / d
-    Q[..., 2, 2] = G12
-    return Q
-
-
-def _cos_sin(angle: ArrayLike) -> tuple[Array, Array]:
-    """Cosine and sine of an angle in degrees, exactly 0 at multiples of 90 degrees."""
-    a = np.deg2rad(_f(angle))
-    c, s = np.cos(a), np.sin(a)
-    return np.where(np.abs(c) < 1e-15, 0.0, c), np.where(np.abs(s) < 1e-15, 0.0, s)
-
-
-def stress_transformation(angle: ArrayLike) -> Array:
-    """Matrix T that takes in-plane stresses from laminate to ply axes: sigma_12 = T sigma_xy.
-
-    Parameters
-    ----------
-    angle : array_like, shape (...)
-        Fibre angle from x towards y, degrees.
-
-    Returns
-    -------
-    ndarray, shape (..., 3, 3)
-        [[c^2, s^2, 2cs], [s^2, c^2, -2cs], [-cs, cs, c^2 - s^2]]; its inverse is T(-angle).
-
-    References
-    ----------
-    Kaw (2006), Eq. (2.94).
-    """
-    c, s = _cos_sin(angle)
-    return np.stack([
-        np.stack([c * c, s * s, 2 * c * s], -1),
-        np.stack([s * s, c * c, -2 * c * s], -1),
-        np.stack([-c * s, c * s, c * c - s * s], -1),
-    ], -2)
-
-
-def strain_transformation(angle: ArrayLike) -> Array:
-    """Matrix that takes engineering strains from laminate to ply axes: eps_12 = T_e eps_xy.
-
-    Parameters
-    ----------
-    angle : array_like, shape (...)
-        Fibre angle from x towards y, degrees.
-
-    Returns
-    -------
-    ndarray, shape (..., 3, 3)
-        [[c^2, s^2, cs], [s^2, c^2, -cs], [-2cs, 2cs, c^2 - s^2]] (= R T R^-1, R = diag(1, 1, 2)).
-
-    References
-    ----------
-    Kaw (2006), Eq. (2.98).
-    """
-    c, s = _cos_sin(angle)
-    return np.stack([
-        np.stack([c * c, s * s, c * s], -1),
-        np.stack([s * s, c * c, -c * s], -1),
-        np.stack([-2 * c * s, 2 * c * s, c * c - s * s], -1),
-    ], -2)
-
-
-def transformed_reduced_stiffness(Q: ArrayLike, angle: ArrayLike) -> Array:
-    """Compute the transformed reduced stiffness Q-bar of a ply at an angle, in laminate axes.
-
-    Parameters
-    ----------
-    Q : array_like, shape (..., 3, 3)
-        Reduced stiffness in material axes, Pa.
-    angle : array_like, shape (...)
-        Fibre angle from x towards y, degrees.
-
-    Returns
-    -------
-    ndarray, shape (..., 3, 3)
-        Q-bar = T(-angle) Q T_e(angle), Pa: sigma_xy = Q-bar eps_xy.
-
-    References
-    ----------
-    Kaw (2006), Eqs. (2.103)-(2.104); Jones (1999), Sec. 2.6.
-
-    Examples
-    --------
-    >>> Qb = transformed_reduced_stiffness(reduced_stiffness(181e9, 10.3e9, 0.28, 7.17e9), 60.0)
-    >>> round(Qb[0, 0] / 1e9, 2)
-    23.65
-    """
-    angle = _f(angle)
-    return stress_transformation(-angle) @ _f(Q) @ strain_transformation(angle)
-
-
-def transformed_expansion(alpha: ArrayLike, angle: ArrayLike) -> Array:
-    """Thermal expansion of a ply in laminate axes (alpha_x, alpha_y, alpha_xy).
-
-    Parameters
-    ----------
-    alpha : array_like, shape (..., 3)
-        (alpha1, alpha2, 0) in material axes, 1/K.
-    angle : array_like, shape (...)
-        Fibre angle, degrees.
-
-    Returns
-    -------
-    ndarray, shape (..., 3)
-        alpha_x = a1 c^2 + a2 s^2, alpha_y = a1 s^2 + a2 c^2, alpha_xy = 2 (a1 - a2) c s
-        (engineering shear strain per kelvin).
-
-    References
-    ----------
-    Kaw (2006), Eq. (2.176).
-    """
-    Te_inv = strain_transformation(-_f(angle))
-    return np.einsum("...ij,...j->...i", Te_inv, _f(alpha))
 
 
 # --- laminate level -----------------------------------------------------------------------------
@@ -397,13 +256,25 @@ class LaminateResponse:
     thermal: PlyFields
 
 
-def _as_material_list(material: Any, n: int, what: str) -> list[PlyMaterial]:
-    if isinstance(material, PlyMaterial):
-        return [material] * n
-    mats = list(material)
-    if len(mats) != n:
-        raise InputError(f"{what}: {len(mats)} materials given for {n} plies")
-    return mats
+def _as_material_list(
+    material: Any, n: int, what: str, model: str = "mori_tanaka", strengths: Any = None
+) -> list[PlyMaterial]:
+    """Return one ply material per ply, from one source or a list or tuple of sources.
+
+    A source is anything :meth:`PlyMaterial.coerce` takes.
+    """
+    if not isinstance(material, list | tuple):
+        one = PlyMaterial.coerce(material, model=model, strengths=strengths)
+        return [one] * n
+    if len(material) != n:
+        raise InputError(f"{what}: {len(material)} materials given for {n} plies")
+    made: dict[int, PlyMaterial] = {}  # a source listed for several plies is converted once
+    out = []
+    for m in material:
+        if id(m) not in made:
+            made[id(m)] = PlyMaterial.coerce(m, model=model, strengths=strengths)
+        out.append(made[id(m)])
+    return out
 
 
 def _as_thickness_list(thickness: Any, n: int, what: str) -> list[Any]:
@@ -478,9 +349,12 @@ class Laminate:
     def from_angles(
         cls,
         angles: Sequence[float] | ArrayLike,
-        material: PlyMaterial | Sequence[PlyMaterial],
+        material: Any,
         thickness: float | str | Sequence[float | str],
         code: str = "",
+        *,
+        model: str = "mori_tanaka",
+        strengths: Any = None,
     ) -> Laminate:
         """Build a laminate from ply angles, one material (or one per ply) and thickness(es).
 
@@ -488,21 +362,36 @@ class Laminate:
         ----------
         angles : sequence of float
             Ply angles in degrees, bottom to top.
-        material : PlyMaterial or sequence of PlyMaterial
-            One material for all plies, or one per ply (hybrid laminates).
+        material : PlyMaterial, Composite, ElasticConstants, str or material, or a list of them
+            One ply source for all plies, or a list (or tuple) with one per ply (hybrid
+            laminates). A composite is estimated with ``model`` (constituents -> ply ->
+            laminate in one call); a string is a registry key (see
+            :meth:`PlyMaterial.coerce`).
         thickness : float, str or sequence
             One ply thickness (m or a unit string), or one per ply.
         code : str, optional
             Label kept for reports.
+        model : str
+            Estimate used for composite sources.
+        strengths : PlyStrengths, mapping or object, optional
+            Strengths attached to every ply made from a source (replacing its own).
 
         Returns
         -------
         Laminate
             The laminate.
+
+        Examples
+        --------
+        >>> from micromech.materials import Composite, Isotropic
+        >>> c = Composite(Isotropic(E="72 GPa", nu=0.22), Isotropic(E="3.5 GPa", nu=0.35), 0.55)
+        >>> lam = Laminate.from_angles([0.0, 90.0, 90.0, 0.0], c, "0.25 mm")
+        >>> lam.plies[0].material.name
+        'mori_tanaka estimate'
         """
         angles = [float(a) for a in np.atleast_1d(_f(angles))]
         n = len(angles)
-        mats = _as_material_list(material, n, "laminate")
+        mats = _as_material_list(material, n, "laminate", model, strengths)
         ts = _as_thickness_list(thickness, n, "laminate")
         return cls(tuple(Ply(m, a, t) for m, a, t in zip(mats, angles, ts, strict=True)), code)
 
@@ -510,8 +399,11 @@ class Laminate:
     def from_code(
         cls,
         code: str,
-        material: PlyMaterial | Sequence[PlyMaterial],
+        material: Any,
         thickness: float | str | Sequence[float | str],
+        *,
+        model: str = "mori_tanaka",
+        strengths: Any = None,
     ) -> Laminate:
         """Build a laminate from a laminate code such as ``"[0/+-45/90]s"``.
 
@@ -519,17 +411,23 @@ class Laminate:
         ----------
         code : str
             Laminate code (see :func:`~micromech.laminate.layup.parse_layup`).
-        material : PlyMaterial or sequence of PlyMaterial
-            One material, or one per ply of the expanded code.
+        material : PlyMaterial, Composite, ElasticConstants, str or material, or a list of them
+            One ply source, or a list with one per ply of the expanded code (see
+            :meth:`from_angles`).
         thickness : float, str or sequence
             Ply thickness, or one per ply.
+        model : str
+            Estimate used for composite sources.
+        strengths : PlyStrengths, mapping or object, optional
+            Strengths attached to plies made from a source.
 
         Returns
         -------
         Laminate
             The laminate.
         """
-        return cls.from_angles(parse_layup(code), material, thickness, code=code)
+        return cls.from_angles(parse_layup(code), material, thickness, code=code, model=model,
+                               strengths=strengths)
 
     def with_materials(self, materials: Sequence[PlyMaterial]) -> Laminate:
         """Return the same stack with other ply materials (e.g. discounted after failure).

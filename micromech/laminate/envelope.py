@@ -17,7 +17,7 @@ References
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 import numpy as np
@@ -29,7 +29,8 @@ from micromech.laminate.failure import MODES
 from micromech.laminate.progressive import ply_strength_ratios
 from micromech.safety import CAUTION
 
-__all__ = ["ENVELOPE_AXES", "Envelope", "failure_envelope", "plot_envelopes"]
+__all__ = ["ENVELOPE_AXES", "Envelope", "check_image_path", "failure_envelope",
+           "plot_envelopes"]
 
 Array = NDArray[np.float64]
 
@@ -70,6 +71,10 @@ class Envelope:
         Index of that ply (-1 where none fails).
     delta_T : float
         Temperature change held fixed, K.
+    intercepts : dict of str to float
+        First-ply failure loads along the four half axes, solved exactly whatever the number of
+        rays: keys ``"+A"``, ``"-A"``, ``"+B"``, ``"-B"`` with A, B the axis names, signed values
+        in SI (``-A`` is negative), inf (with the sign of the half axis) where it never fails.
     """
 
     axes: tuple[str, str]
@@ -81,6 +86,7 @@ class Envelope:
     mode: NDArray[np.str_]
     ply: NDArray[np.int64]
     delta_T: float
+    intercepts: dict[str, float] = field(default_factory=dict)
 
     @property
     def units(self) -> tuple[str, str]:
@@ -93,7 +99,7 @@ class Envelope:
         Returns
         -------
         dict
-            axes, units, criterion, delta_T, x, y, mode, ply.
+            axes, units, criterion, delta_T, x, y, mode, ply, intercepts.
         """
         def clean(a: Array) -> list[float | None]:
             return [float(v) if np.isfinite(v) else None for v in a]
@@ -102,6 +108,8 @@ class Envelope:
             "axes": list(self.axes), "units": list(self.units), "criterion": self.criterion,
             "delta_T": self.delta_T, "x": clean(self.x), "y": clean(self.y),
             "mode": self.mode.tolist(), "ply": self.ply.tolist(),
+            "intercepts": {k: (float(v) if np.isfinite(v) else None)
+                           for k, v in self.intercepts.items()},
         }
 
 
@@ -169,19 +177,40 @@ def failure_envelope(
         raise InputError(f"envelope axes: the two axes must differ, got {ax[0]!r} twice")
     if int(n_points) < 8:
         raise InputError(f"n_points = {n_points}: at least 8 rays are needed")
-    phi = np.linspace(0.0, 2.0 * np.pi, int(n_points))
-    loads = _unit_loads(laminate, (ax[0], ax[1]), phi)
+    m = int(n_points)
+    phi = np.linspace(0.0, 2.0 * np.pi, m)
+    # the rays, then the four half axes (exact unit loads: no round-off in cos and sin)
+    loads = np.concatenate([_unit_loads(laminate, (ax[0], ax[1]), phi),
+                            _axis_loads(laminate, (ax[0], ax[1]))])
     res = ply_strength_ratios(laminate, loads, delta_T, criterion, f12_star=f12_star)
-    R = res.strength_ratio.reshape(phi.shape + (-1,))
-    codes = res.mode_code.reshape(phi.shape + (-1,))
+    R = res.strength_ratio.reshape((m + 4, -1))
+    codes = res.mode_code.reshape((m + 4, -1))
     k = np.argmin(R, -1)
-    ratio = np.take_along_axis(R, k[:, None], -1)[:, 0]
-    mode = np.asarray(MODES)[np.take_along_axis(codes, k[:, None], -1)[:, 0]]
-    ply = np.where(np.isfinite(ratio), k // 3, -1).astype(np.int64)
+    ratio_all = np.take_along_axis(R, k[:, None], -1)[:, 0]
+    ratio = ratio_all[:m]
+    mode = np.asarray(MODES)[np.take_along_axis(codes, k[:, None], -1)[:m, 0]]
+    ply = np.where(np.isfinite(ratio), k[:m] // 3, -1).astype(np.int64)
     with np.errstate(invalid="ignore"):
         x = np.where(np.isfinite(ratio), ratio * np.cos(phi), np.inf)
         y = np.where(np.isfinite(ratio), ratio * np.sin(phi), np.inf)
-    return Envelope((ax[0], ax[1]), criterion, phi, x, y, ratio, mode, ply, float(delta_T))
+    signs = (1.0, -1.0, 1.0, -1.0)
+    keys = (f"+{ax[0]}", f"-{ax[0]}", f"+{ax[1]}", f"-{ax[1]}")
+    intercepts = {key: float(sg * r) for key, sg, r in zip(keys, signs, ratio_all[m:],
+                                                            strict=True)}
+    return Envelope((ax[0], ax[1]), criterion, phi, x, y, ratio, mode, ply, float(delta_T),
+                    intercepts)
+
+
+def _axis_loads(laminate: Laminate, axes: tuple[str, str]) -> Array:
+    """Return the unit loads along +A, -A, +B, -B, shape (4, 6)."""
+    out = np.zeros((4, 6))
+    for row, (axis, sign) in enumerate(((axes[0], 1.0), (axes[0], -1.0), (axes[1], 1.0),
+                                        (axes[1], -1.0))):
+        if axis in _STRESS_AXES:
+            out[row, _STRESS_AXES[axis]] = sign * laminate.thickness
+        else:
+            out[row, LOAD_NAMES.index(axis)] = sign
+    return out
 
 
 def plot_envelopes(
@@ -206,8 +235,10 @@ def plot_envelopes(
     Raises
     ------
     InputError
-        If no envelope is given or their axes differ.
+        If no envelope is given, their axes differ, the file suffix is not an image format
+        matplotlib writes, or the directory does not exist.
     """
+    out = check_image_path(path, "plot file")
     if not envelopes:
         raise InputError("plot_envelopes: no envelope given")
     axes = envelopes[0].axes
@@ -236,6 +267,41 @@ def plot_envelopes(
     ax.grid(True, alpha=0.3)
     fig.text(0.5, 0.01, CAUTION, ha="center", va="bottom", fontsize=6.5, wrap=True)
     fig.subplots_adjust(bottom=0.14)
-    out = Path(path)
     fig.savefig(out, dpi=120)
+    return out
+
+
+def check_image_path(path: str | Path, field: str) -> Path:
+    """Check that an image can be written to ``path``: a known format and an existing folder.
+
+    Parameters
+    ----------
+    path : str or Path
+        The file to write; no suffix means PNG.
+    field : str
+        How the path is named in messages (e.g. ``"--plot"``).
+
+    Returns
+    -------
+    Path
+        The path.
+
+    Raises
+    ------
+    InputError
+        If the suffix is not a format matplotlib writes, or the folder does not exist.
+    """
+    from matplotlib.backend_bases import FigureCanvasBase
+
+    out = Path(path)
+    suffix = out.suffix.lower().lstrip(".")
+    formats = FigureCanvasBase.get_supported_filetypes()
+    if suffix and suffix not in formats:
+        raise InputError(
+            f"{field} = {str(path)!r}: format {suffix!r} is not an image format that can be "
+            f"written; use one of {', '.join(sorted(formats))}"
+        )
+    folder = out.parent if str(out.parent) else Path(".")
+    if not folder.is_dir():
+        raise InputError(f"{field} = {str(path)!r}: folder {str(folder)!r} does not exist")
     return out

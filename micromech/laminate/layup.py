@@ -17,7 +17,9 @@ The rules this parser follows (our own, stated once here and in :func:`parse_lay
 * Odd symmetric laminates: a trailing apostrophe marks the mid-plane ply, which is not mirrored.
   It is allowed only on the last single angle before ``]s`` (no count, not a pair, not inside a
   group, plain ``s`` suffix): ``[0/45/90']s`` = 0/45/90/45/0. This stands for the overbar of
-  printed codes.
+  printed codes; an overbar typed as combining characters (U+0305 or U+0304 after the digits,
+  as text copied from a document gives it, ``[0/45/9\u03050\u0305]s``) is read the same way.
+* A code expands to at most :data:`MAX_PLIES` plies (a guard against a mistyped repeat count).
 
 A malformed code raises :class:`~micromech.errors.InputError` naming the character and its
 1-based position.
@@ -36,10 +38,14 @@ import math
 
 from micromech.errors import InputError
 
-__all__ = ["parse_layup", "format_layup", "MAX_ANGLE"]
+__all__ = ["parse_layup", "format_layup", "MAX_ANGLE", "MAX_PLIES"]
 
 #: Largest accepted magnitude of a ply angle in a code, degrees.
 MAX_ANGLE = 180.0
+#: Largest number of plies a code may expand to.
+MAX_PLIES = 10_000
+
+_OVERBARS = ("\u0305", "\u0304")  # combining overline, combining macron
 
 _PLUS_MINUS = ("+-", "±")
 _MINUS_PLUS = ("-+", "∓")
@@ -52,7 +58,7 @@ class _Parser:
         self.code = code
         self.i = 0
         self.mid_at: int | None = None  # position of the mid-plane mark, if any
-        self.mid_is_last = False
+        self.bar_at: int | None = None  # position of an overbar on the angle just read
 
     # -- helpers ---------------------------------------------------------------------------
     def _skip(self) -> None:
@@ -76,6 +82,30 @@ class _Parser:
         while self.i < len(self.code) and self.code[self.i].isdigit():
             self.i += 1
         return self.code[start : self.i]
+
+    def _marked_digits(self) -> str:
+        """Digits of an angle; combining overbars among them are noted and skipped."""
+        out = []
+        while self.i < len(self.code):
+            c = self.code[self.i]
+            if c.isdigit():
+                out.append(c)
+            elif c in _OVERBARS and out:
+                if self.bar_at is None:
+                    self.bar_at = self.i
+            else:
+                break
+            self.i += 1
+        return "".join(out)
+
+    def _repeat(self, items: list[float], n: int, at: int) -> list[float]:
+        """Return ``items`` repeated ``n`` times, refusing codes that grow beyond MAX_PLIES."""
+        if len(items) * n > MAX_PLIES:
+            raise self._fail(
+                f"the code would expand to {len(items) * n} plies, more than the limit of "
+                f"{MAX_PLIES}", at=at,
+            )
+        return items * n
 
     def _count(self) -> int:
         start = self.i
@@ -106,7 +136,8 @@ class _Parser:
                 raise self._fail("expected a ply angle or '('")
             if self.mid_at is not None:
                 raise self._fail(
-                    "the mid-plane mark \"'\" must be on the last ply before ']s'", at=self.mid_at
+                    "the mid-plane mark (' or an overbar) must be on the last ply before ']s'",
+                    at=self.mid_at,
                 )
             out.extend(self._item(depth))
             if self._peek() != "/":
@@ -121,27 +152,38 @@ class _Parser:
                 raise self._fail("expected '/' or ')'")
             self.i += 1
             n = 1
+            at = self.i
             if self.i < len(self.code) and self.code[self.i] == "_":
                 self.i += 1
                 n = self._count()
             elif self.i < len(self.code) and self.code[self.i].isdigit():
                 n = self._count()
-            return inner * n
+            return self._repeat(inner, n, at)
+        self.bar_at = None
         plies = self._angle_or_pair()
         n = 1
+        at = self.i
         if self.i < len(self.code) and self.code[self.i] == "_":
             self.i += 1
             n = self._count()
-        if self.i < len(self.code) and self.code[self.i] == "'":
+        barred = self.bar_at is not None
+        quoted = self.i < len(self.code) and self.code[self.i] == "'"
+        if barred or quoted:
+            mark = self.i if quoted else self.bar_at
             if depth > 0:
-                raise self._fail("the mid-plane mark \"'\" cannot be used inside a group")
+                raise self._fail(
+                    "the mid-plane mark (' or an overbar) cannot be used inside a group", at=mark
+                )
             if len(plies) != 1 or n != 1:
                 raise self._fail(
-                    "the mid-plane mark \"'\" applies to one single ply (no count, no +- pair)"
+                    "the mid-plane mark (' or an overbar) applies to one single ply "
+                    "(no count, no +- pair)",
+                    at=mark,
                 )
-            self.mid_at = self.i
-            self.i += 1
-        return plies * n
+            self.mid_at = mark
+            if quoted:
+                self.i += 1
+        return self._repeat(plies, n, at)
 
     def _angle_or_pair(self) -> list[float]:
         self._skip()
@@ -164,11 +206,14 @@ class _Parser:
             sign = -1.0 if self.code[self.i] == "-" else 1.0
             self.i += 1
         num_start = self.i
-        whole = self._digits()
+        whole = self._marked_digits()
         frac = ""
         if self.i < len(self.code) and self.code[self.i] == ".":
             self.i += 1
-            frac = self._digits()
+            while self.i < len(self.code) and self.code[self.i] in _OVERBARS:
+                self.bar_at = self.i if self.bar_at is None else self.bar_at
+                self.i += 1
+            frac = self._marked_digits()
             if not frac:
                 raise self._fail("expected digits after the decimal point")
         if not whole:
@@ -206,9 +251,10 @@ class _Parser:
             raise self._fail("expected nothing, 'T', a count, 's' or a count and 's' after ']'")
         if self.mid_at is not None and not (symmetric and n == 1):
             raise self._fail(
-                "the mid-plane mark \"'\" needs the plain symmetric suffix ']s'", at=self.mid_at
+                "the mid-plane mark (' or an overbar) needs the plain symmetric suffix ']s'",
+                at=self.mid_at,
             )
-        half = angles * n
+        half = self._repeat(angles, 2 * n if symmetric else n, start)[: len(angles) * n]
         if not symmetric:
             return tuple(half)
         if self.mid_at is not None:
@@ -234,7 +280,8 @@ def parse_layup(code: str) -> tuple[float, ...]:
     Raises
     ------
     InputError
-        If the code is malformed; the message names the character and its 1-based position.
+        If the code is malformed or expands to more than :data:`MAX_PLIES` plies; the message
+        names the character and its 1-based position.
 
     References
     ----------

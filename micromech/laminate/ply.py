@@ -6,7 +6,10 @@ E1, E2, nu12, G12 are required (classical laminate theory needs nothing else); E
 default to the transversely isotropic values E2, G12, nu12 and G23 / nu23 complete the 3D
 stiffness for :func:`~micromech.laminate.stack.stack_constants`. The constants may come from
 inline numbers or unit strings, from the materials registry, from a material model, or from any
-homogenisation estimate (:meth:`PlyMaterial.from_constants`).
+homogenisation estimate (:meth:`PlyMaterial.from_constants`), or straight from a composite's
+fibre, matrix and fraction (:meth:`PlyMaterial.from_composite`: constituents -> estimate -> ply
+in one call). :meth:`PlyMaterial.coerce` accepts any of these sources, so that
+``Laminate.from_code("[0/90]s", composite, "0.125 mm")`` goes from constituents to a laminate.
 
 References
 ----------
@@ -203,7 +206,7 @@ class PlyMaterial:
     Examples
     --------
     >>> m = PlyMaterial(E1="181 GPa", E2="10.3 GPa", nu12=0.28, G12="7.17 GPa")
-    >>> round(m.reduced_stiffness()[0, 0] / 1e9, 2)
+    >>> round(float(m.reduced_stiffness()[0, 0]) / 1e9, 2)
     181.81
     """
 
@@ -317,6 +320,113 @@ class PlyMaterial:
         )
 
     @classmethod
+    def from_composite(
+        cls,
+        composite: Any,
+        model: str = "mori_tanaka",
+        strengths: Any = None,
+        *,
+        name: str | None = None,
+    ) -> PlyMaterial:
+        """Estimate the ply constants of a composite (fibre, matrix, fraction) with one model.
+
+        Parameters
+        ----------
+        composite : Composite
+            One design point (a scalar fibre fraction) of a continuous-fibre composite.
+        model : str
+            Estimate key of :func:`micromech.homogenize.estimate`, e.g. ``"mori_tanaka"``,
+            ``"halpin_tsai"``, ``"cylinders"``, ``"chamis"``, ``"rule_of_mixtures"``.
+        strengths : PlyStrengths, mapping or object, optional
+            Ply strengths (estimates carry none; failure analysis needs them).
+        name : str, optional
+            Label; default ``"<model> estimate"``.
+
+        Returns
+        -------
+        PlyMaterial
+            The estimated ply, with the model's source.
+
+        Raises
+        ------
+        InputError
+            If the model does not apply to this composite (the message says why and lists the
+            models that do), or the composite holds several fractions.
+
+        References
+        ----------
+        The estimators of :mod:`micromech.homogenize` name their sources (e.g. Mori and Tanaka
+        1973 in the form of Benveniste 1987).
+
+        Examples
+        --------
+        >>> from micromech.materials import Composite, Isotropic
+        >>> c = Composite(Isotropic(E="72 GPa", nu=0.22), Isotropic(E="3.5 GPa", nu=0.35), 0.55)
+        >>> round(PlyMaterial.from_composite(c, "rule_of_mixtures").E1 / 1e9, 4)
+        41.175
+        """
+        from micromech.homogenize import estimate
+
+        if np.ndim(getattr(composite, "volume_fraction", 0.0)) != 0:
+            raise InputError(
+                f"ply from composite: volume_fraction has shape "
+                f"{np.shape(composite.volume_fraction)}; a ply needs one fibre fraction"
+            )
+        result = estimate(composite, strengths=False)
+        models = getattr(result, "models", result)
+        if model not in models:
+            why = getattr(result, "notes", {}).get(model, "")
+            raise InputError(
+                f"ply model = {model!r} does not apply to this composite"
+                f"{' (' + why + ')' if why else ''}; available: {', '.join(models)}"
+            )
+        return cls.from_constants(models[model], strengths=strengths,
+                                  name=name if name is not None else f"{model} estimate")
+
+    @classmethod
+    def coerce(
+        cls, source: Any, *, model: str = "mori_tanaka", strengths: Any = None
+    ) -> PlyMaterial:
+        """Make a ply from any source of ply constants.
+
+        Parameters
+        ----------
+        source : PlyMaterial, str, ElasticConstants, Composite or material
+            A ply (returned as is, or with ``strengths`` replaced), a registry key, a
+            homogenisation result of one design point, a composite (estimated with ``model``),
+            or a material model (transversely isotropic, orthotropic or isotropic).
+        model : str
+            Estimate used for a composite.
+        strengths : PlyStrengths, mapping or object, optional
+            Strengths to attach (replacing the source's own).
+
+        Returns
+        -------
+        PlyMaterial
+            The ply constants.
+
+        Raises
+        ------
+        InputError
+            If the source gives no ply constants (see the constructors).
+        """
+        from dataclasses import replace
+
+        from micromech.results import ElasticConstants
+
+        if isinstance(source, PlyMaterial):
+            if strengths is None:
+                return source
+            return replace(source, strengths=PlyStrengths.from_any(strengths))
+        if isinstance(source, str):
+            return cls.from_registry(source, strengths=strengths)
+        if isinstance(source, ElasticConstants):
+            return cls.from_constants(source, strengths=strengths)
+        if all(hasattr(source, k) for k in ("fibre", "matrix", "volume_fraction")):
+            return cls.from_composite(source, model, strengths)
+        return cls.from_material(source, strengths=strengths)
+
+    @classmethod
     def from_material(cls, material: Any, strengths: Any = None) -> PlyMaterial:
         """Make a ply from a material model (transversely isotropic, orthotropic or isotropic).
 
@@ -410,7 +520,7 @@ class PlyMaterial:
         ----------
         Kaw (2006), Eq. (2.93) (from memory); Jones (1999), Sec. 2.6.
         """
-        from micromech.laminate.clt import reduced_stiffness
+        from micromech.laminate.plane import reduced_stiffness
 
         return reduced_stiffness(self.E1, self.E2, self.nu12, self.G12)
 

@@ -132,7 +132,15 @@ def _choice(field: str, value: Any, options: tuple[str, ...]) -> str:
 def _fraction(value: Any, field: str) -> float | Array:
     if isinstance(value, str):
         value = parse_quantity(value, "dimensionless", field)
-    a = np.asarray(value, dtype=np.float64)
+    if isinstance(value, bool) or value is None:
+        raise FractionError(f"{field} = {value!r} is not a number (rule: a fraction in [0, 1])")
+    try:
+        a = np.asarray(value, dtype=np.float64)
+    except (TypeError, ValueError):
+        raise FractionError(
+            f"{field} = {value!r} is not a number or an array of numbers (rule: fractions in "
+            "[0, 1])"
+        ) from None
     if a.ndim == 0:
         return float(a)
     a = a.copy()

@@ -183,7 +183,7 @@ class Registry(Mapping[str, Material]):
             d.setdefault("key", key)
             d.setdefault("name", key)
             try:
-                mat = material_from_dict(d, label=f"{path.name}: [{raw_key}]")
+                mat = material_from_dict(d, label=f"[{raw_key}]")
             except MicromechError as exc:
                 raise type(exc)(f"{path}: {exc}") from None
             self._raw[key] = d

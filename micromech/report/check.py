@@ -91,7 +91,8 @@ def verdict_rows(result: Any) -> tuple[list[str], list[list[str]]]:
 
 def _curve_rows(result: Any) -> tuple[list[str], list[list[str]]]:
     headers = ["load case", "modulus", "fit range (strain)", "r2", "offset", "yield strength",
-               "ultimate strength", "strain at ultimate", "failed"]
+               "proportional limit", "ultimate strength", "strain at ultimate", "final strain",
+               "failed", "energy to ultimate"]
     rows = []
     for d, c in result.curves.items():
         m = c.metrics
@@ -100,9 +101,37 @@ def _curve_rows(result: Any) -> tuple[list[str], list[list[str]]]:
             d, format_si(m.modulus, "pressure"), f"{lo:.3g} .. {hi:.3g}", f"{m.r2:.5f}",
             f"{m.yield_offset:g}",
             "-" if m.yield_strength is None else format_si(m.yield_strength, "pressure"),
+            format_si(m.proportional_limit, "pressure"),
             format_si(m.ultimate_strength, "pressure"), f"{m.strain_at_ultimate:.4g}",
-            "yes" if m.failed else "no (lower limit)",
+            f"{m.final_strain:.4g}", "yes" if m.failed else "no (lower limit)",
+            f"{m.energy_to_ultimate / 1e6:.4g} MJ/m^3",
         ])
+    return headers, rows
+
+
+_STIFFNESS_AXES = ["11", "22", "33", "23", "13", "12"]
+
+
+def _stiffness_summary(result: Any) -> str:
+    """One sentence on the effective stiffness: where from, symmetry, positive definiteness."""
+    eff = result.stiffness
+    if result.stiffness_source == "load_cases":
+        where = (f"fitted to {eff.n_cases} averaged load cases (relative residual "
+                 f"{eff.residual:.2g}, strain condition number {eff.condition:.3g})")
+    else:
+        where = "given in the case file"
+    pd = "yes" if eff.positive_definite else "NO (no stable material has it)"
+    return (f"Effective stiffness {where}: symmetry error {100 * eff.symmetry_error:.3g} % "
+            f"(max|C - C^T| / max|C|), positive definite: {pd}. The engineering constants are "
+            "read from its symmetric part.")
+
+
+def _stiffness_rows(result: Any) -> tuple[list[str], list[list[str]]]:
+    """Tabulate the effective 6x6 stiffness in GPa (Voigt order, engineering shear strain)."""
+    C = result.stiffness.stiffness
+    headers = ["C (GPa)", *_STIFFNESS_AXES]
+    rows = [[a, *(f"{C[i, j] / 1e9:.4g}" for j in range(6))]
+            for i, a in enumerate(_STIFFNESS_AXES)]
     return headers, rows
 
 
@@ -153,6 +182,9 @@ def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 10
     if result.curves:
         out += ["", "Load cases:"]
         out.append(_text_table(*_curve_rows(result)))
+    if result.stiffness is not None:
+        out += ["", textwrap.fill(_stiffness_summary(result), width)]
+        out.append(_text_table(*_stiffness_rows(result)))
     if result.notes:
         out += ["", "Notes:"]
         out += [textwrap.fill(n, width, initial_indent="  - ", subsequent_indent="    ")
@@ -367,6 +399,9 @@ def render_markdown(result: Any, images: Mapping[str, str] | None = None) -> str
         out += ["## Load cases\n", markdown_table(*_curve_rows(result))]
         if "curves" in images:
             out.append(f"![stress-strain curves]({images['curves']})\n")
+    if result.stiffness is not None:
+        out += ["## Effective stiffness\n", f"{_stiffness_summary(result)}\n",
+                markdown_table(*_stiffness_rows(result))]
     if "properties" in images:
         out += ["## Properties against bounds and estimates\n",
                 f"![bounds, estimates and simulated values]({images['properties']})\n",
@@ -410,6 +445,9 @@ def render_html(result: Any, images: Mapping[str, bytes] | None = None) -> str:
             body.append(image_tag(images["curves"], "stress-strain curves",
                                   "Curves with the modulus fit (dashed, grey: fit range), the "
                                   "offset line (dotted), the yield point and the ultimate point."))
+    if result.stiffness is not None:
+        body += ["<h2>Effective stiffness</h2>", f"<p>{escape(_stiffness_summary(result))}</p>",
+                 html_table(*_stiffness_rows(result), numeric=[False] + [True] * 6)]
     if "properties" in images:
         body += ["<h2>Properties against bounds and estimates</h2>",
                  image_tag(images["properties"], "bounds, estimates and simulated values",
@@ -438,7 +476,8 @@ def write_check_report(result: Any, directory: str | Path) -> dict[str, Path]:
     Raises
     ------
     InputError
-        If the folder holds one of the case's input files, or is an existing file.
+        If the folder holds one of the case's input files, is an existing file, or cannot be
+        created.
     """
     d = Path(directory)
     if d.exists() and not d.is_dir():
@@ -451,7 +490,12 @@ def write_check_report(result: Any, directory: str | Path) -> dict[str, Path]:
             f"report folder {str(d)!r} holds the case's input files ({names}); write the "
             "report to another folder so that the inputs are never overwritten"
         )
-    d.mkdir(parents=True, exist_ok=True)
+    try:
+        d.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise InputError(
+            f"report folder {str(d)!r} cannot be created ({exc.strerror or exc})"
+        ) from None
     figures = _figures(result)
     written: dict[str, Path] = {}
     for key, (fname, png) in figures.items():

@@ -34,6 +34,7 @@ _SHORT = {
     "cylinders": "composite cylinders", "mori_tanaka": "Mori-Tanaka",
     "hashin_shtrikman_lower": "HS lower", "hashin_shtrikman_upper": "HS upper",
 }
+_STYLES = ("-", "--", ":", "-.")
 _COLOURS = {"rule_of_mixtures": "tab:blue", "halpin_tsai": "tab:orange", "chamis": "tab:green",
             "cylinders": "tab:red", "mori_tanaka": "tab:purple"}
 
@@ -165,12 +166,20 @@ def _draw_sweep(ax: Any, sweep: Sweep, target: Any = None) -> None:
         for i in range(lo.shape[0]):
             ax.fill_between(x, lo[i] / f, hi[i] / f, color="0.85", lw=0,
                             label="bounds" if i == 0 else None)
+    rows = 1
     for k, v in sweep.values.items():
         y = np.reshape(v, (-1, sweep.x.size))
-        for i in range(y.shape[0]):
-            ax.plot(x, y[i] / f, color=_COLOURS.get(k), lw=1.3,
-                    ls="--" if k == "cylinders" else "-",
+        rows = y.shape[0]
+        for i in range(rows):
+            # one line style per constituent set when several are swept at once
+            ls = _STYLES[i % len(_STYLES)] if rows > 1 else ("--" if k == "cylinders" else "-")
+            ax.plot(x, y[i] / f, color=_COLOURS.get(k), lw=1.3, ls=ls,
                     label=_SHORT.get(k, k) if i == 0 else None)
+    if rows > 1:
+        for i in range(min(rows, len(_STYLES))):
+            ax.plot([], [], color="0.3", lw=1.0, ls=_STYLES[i],
+                    label=f"constituents {i + 1}" + (" (and every 4th after)"
+                                                    if rows > len(_STYLES) else ""))
     if target is not None:
         ax.axhline(target.value / f, color="k", lw=1, ls=":", label=f"target {target.describe()}")
     xl = {"volume_fraction": "fibre volume fraction [%]", "angle": "fibre angle [deg]",
@@ -182,8 +191,13 @@ def _draw_sweep(ax: Any, sweep: Sweep, target: Any = None) -> None:
 
 
 def _save(fig: Any, path: str | Path) -> Path:
-    fig.text(0.5, 0.005, CAUTION, ha="center", fontsize=7)
-    fig.tight_layout(rect=(0, 0.03, 1, 1))
+    import textwrap
+
+    width, height = fig.get_size_inches()
+    text = textwrap.fill(CAUTION, width=max(40, int(width * 15)))  # about 15 characters per inch
+    lines = text.count("\n") + 1
+    fig.text(0.5, 0.005, text, ha="center", va="bottom", fontsize=7)
+    fig.tight_layout(rect=(0, min(0.3, (0.05 + 0.13 * lines) / height), 1, 1))
     out = Path(path)
     fig.savefig(out, dpi=120)
     _pyplot().close(fig)

@@ -14,7 +14,11 @@ import numpy as np
 from micromech.homogenize.estimate import BOUND_KEYS, MODEL_KEYS, Estimates, estimate
 from micromech.homogenize.strength import CAUTION
 
-__all__ = ["estimate_table", "plot_estimates", "CAUTION", "PROPERTIES"]
+__all__ = ["estimate_table", "plot_estimates", "check_plot_path", "CAUTION", "PROPERTIES",
+           "PLOT_FORMATS"]
+
+#: Image formats the plot may be written in (by file suffix).
+PLOT_FORMATS: tuple[str, ...] = ("png", "svg", "pdf")
 
 #: Rows of the table: name, label, unit, factor from SI.
 PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
@@ -103,6 +107,40 @@ def estimate_table(est: Estimates) -> str:
     return "\n".join(lines)
 
 
+def check_plot_path(path: str | Path, field: str = "path") -> Path:
+    """Check that a plot can be written to ``path`` before any work is done.
+
+    Parameters
+    ----------
+    path : str or Path
+        Image file to write; its suffix chooses the format (see :data:`PLOT_FORMATS`).
+    field : str
+        Name of the option or argument, for the message.
+
+    Returns
+    -------
+    Path
+        The path.
+
+    Raises
+    ------
+    InputError
+        If the suffix is not a supported format or the folder does not exist.
+    """
+    from micromech.errors import InputError
+
+    p = Path(path)
+    suffix = p.suffix.lower().lstrip(".")
+    if suffix not in PLOT_FORMATS:
+        raise InputError(
+            f"{field} = {str(path)!r}: the file name must end in "
+            f"{', '.join('.' + f for f in PLOT_FORMATS)} (got {'.' + suffix if suffix else 'none'})"
+        )
+    if not p.parent.is_dir():
+        raise InputError(f"{field} = {str(path)!r}: folder {str(p.parent)!r} does not exist")
+    return p
+
+
 def plot_estimates(
     est: Estimates, path: str | Path, *, points: int = 101,
     properties: tuple[str, ...] = ("E1", "E2", "G12", "G23", "nu12", "alpha2"),
@@ -124,7 +162,13 @@ def plot_estimates(
     -------
     Path
         The file written.
+
+    Raises
+    ------
+    InputError
+        If the file name has no supported image suffix or its folder does not exist.
     """
+    out = check_plot_path(path)
     import matplotlib
 
     matplotlib.use("Agg")
@@ -169,7 +213,6 @@ def plot_estimates(
                  fontsize=10)
     fig.text(0.5, 0.005, CAUTION, ha="center", fontsize=7)
     fig.tight_layout(rect=(0, 0.03, 1, 0.96))
-    out = Path(path)
     fig.savefig(out, dpi=120)
     plt.close(fig)
     return out

@@ -561,6 +561,7 @@ _UD_PAIRS = _Pairs(
                  ("nu23", "E2", "nu32", "E3")),
     equal=(("E2", "E3"), ("G12", "G13"), ("nu12", "nu13")),
 )
+_ISOTROPIC_EQUAL = (("E1", "E2"), ("G12", "G23"), ("nu12", "nu23"))
 _STACK_PAIRS = _Pairs(
     reciprocity=(("nuxy", "Ex", "nuyx", "Ey"), ("nuxz", "Ex", "nuzx", "Ez"),
                  ("nuyz", "Ey", "nuzy", "Ez")),
@@ -576,13 +577,15 @@ def consistency_reasons(
     stack: bool = False,
     symmetric: bool = True,
     arrangement: str = "random",
+    isotropic: bool = False,
 ) -> dict[str, list[str]]:
     """Consistency checks across the simulated properties; each failure makes them suspect.
 
     Checks: reciprocity nu_ij / E_i = nu_ji / E_j (the stiffness is symmetric); the moduli a
     symmetric cell must have equal (E2 = E3, G12 = G13 for aligned fibres in a hexagonal,
-    square or random arrangement; Ex = Ey, Gxz = Gyz and the x and y strengths for a balanced
-    cross-ply). The limit-analysis checks of strengths are bounds in
+    square or random arrangement; also E1 = E2, G12 = G23, nu12 = nu23 for spheres in a random
+    or square arrangement, isotropic or cubic; Ex = Ey, Gxz = Gyz and the x and y strengths for
+    a balanced cross-ply). The limit-analysis checks of strengths are bounds in
     :func:`~micromech.rve.verdicts.grade_property` with ``bounds_rigorous=False``.
 
     Parameters
@@ -596,6 +599,8 @@ def consistency_reasons(
         fibres).
     arrangement : str
         Fibre arrangement; a random cell may differ a little more between the pairs.
+    isotropic : bool
+        Spheres (material axes): the three axes are alike, as in an isotropic or cubic cell.
 
     Returns
     -------
@@ -632,7 +637,11 @@ def consistency_reasons(
         why = ("a balanced cross-ply is the same after a 90 degree turn about z"
                if stack else "aligned fibres make the cell transversely isotropic (or square-"
                "symmetric) about the fibre axis")
-        for p, q in pairs.equal:
+        equal = pairs.equal
+        if isotropic and not stack:
+            why = "spheres make the three axes of the cell alike (isotropic or cubic)"
+            equal = (*equal, *_ISOTROPIC_EQUAL)
+        for p, q in equal:
             if p in values and q in values:
                 vp, vq = values[p], values[q]
                 mean = 0.5 * (abs(vp) + abs(vq))

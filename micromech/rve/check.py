@@ -450,6 +450,11 @@ class CheckResult:
         Case-level remarks (size fit, stiffness symmetry, skipped items).
     inputs : tuple of Path
         The case file and every history file read (never written).
+    stiffness : EffectiveStiffness or None
+        The effective 6x6 stiffness, with its symmetry error and positive definiteness, where
+        the case gives averaged load cases or a full matrix.
+    stiffness_source : str or None
+        ``"load_cases"`` (fitted to averaged stresses and strains) or ``"matrix"`` (given).
     caution : str
         The caution every output carries.
     """
@@ -463,6 +468,8 @@ class CheckResult:
     curves: Mapping[str, CurveResult] = field(default_factory=dict)
     notes: tuple[str, ...] = ()
     inputs: tuple[Path, ...] = ()
+    stiffness: Any = None
+    stiffness_source: str | None = None
     caution: str = CAUTION
 
     @property
@@ -482,8 +489,14 @@ class CheckResult:
         -------
         dict
             ``case``, ``case_file``, ``architecture``, ``volume_fraction``, ``arrangement``,
-            ``curves``, ``properties``, ``worst_verdict``, ``notes``, ``caution``.
+            ``curves``, ``properties``, ``worst_verdict``, ``stiffness`` (None, or the 6x6
+            matrix in Pa with ``source``, ``symmetry_error``, ``positive_definite``,
+            ``residual``, ``condition``, ``n_cases`` and ``constants``), ``notes``,
+            ``caution``.
         """
+        stiffness = None
+        if self.stiffness is not None:
+            stiffness = {"source": self.stiffness_source, **self.stiffness.as_dict()}
         return {
             "case": self.case,
             "case_file": None if self.path is None else str(self.path),
@@ -493,6 +506,7 @@ class CheckResult:
             "curves": {d: c.metrics.as_dict() for d, c in self.curves.items()},
             "properties": {n: p.as_dict() for n, p in self.properties.items()},
             "worst_verdict": self.worst_verdict,
+            "stiffness": stiffness,
             "notes": list(self.notes),
             "caution": self.caution,
         }
@@ -561,6 +575,7 @@ def check_case(
     *,
     offset: float | None = None,
     tolerances: Mapping[str, float] | Sequence[str] | None = None,
+    strain_range: tuple[float, float] | None = None,
 ) -> CheckResult:
     """Check the simulated RVE results of a case file.
 
@@ -574,6 +589,10 @@ def check_case(
     tolerances : mapping or sequence of ``"NAME=VALUE"``, optional
         Relative tolerances per property around the best estimate; they replace the default
         bands (and ``[check] tolerance`` entries of the case).
+    strain_range : (float, float), optional
+        Strain range (low, high) of the modulus fit of every history, replacing the automatic
+        search and the ranges given in the case (``strain_range`` of a load case or of
+        ``[check]``).
 
     Returns
     -------
@@ -585,7 +604,7 @@ def check_case(
     CaseFileError
         If the case has no [rve] results or no composite to compare with.
     InputError
-        For a bad tolerance or offset.
+        For a bad tolerance, offset or strain range.
     DataFileError
         For an unreadable history file.
 
@@ -611,6 +630,8 @@ def check_case(
                             "[composite] with a fraction")
     if offset is not None and not (np.isfinite(offset) and 0.0 < offset < 1.0):
         raise InputError(f"offset = {offset!r} must be a strain between 0 and 1 (e.g. 0.002)")
+    if strain_range is not None:
+        strain_range = _check_strain_range(strain_range)
     tol = dict(parse_tolerances(case.check.get("tolerance", {})))
     if tolerances is not None:
         tol.update(parse_tolerances(tolerances))
@@ -634,7 +655,7 @@ def check_case(
         curve = _read_curve(lc, size)
         off = offset if offset is not None else (
             lc.offset if lc.offset is not None else case.check.get("offset", 0.002))
-        rng = lc.strain_range or case.check.get("strain_range")
+        rng = strain_range or lc.strain_range or case.check.get("strain_range")
         m = metrics_of_curve(curve, offset=off, fit_range=rng)
         curves[lc.direction] = CurveResult(lc.direction, curve.strain, curve.stress, m,
                                            str(lc.file))
@@ -710,8 +731,12 @@ def check_case(
         direction = n.rsplit("_", 1)[-1]
         normal = direction in ("x", "y", "z")
         failed = n.startswith("yield") or curves[direction].metrics.failed
+        lower = None
+        if m_yield is not None and failed:
+            # in shear the matrix yields at its von Mises shear yield stress, yield / sqrt(3)
+            lower = m_yield if normal else m_yield / np.sqrt(3.0)
         results[n] = grade_property(
-            n, values[n], lower_bound=m_yield if (normal and failed) else None,
+            n, values[n], lower_bound=lower,
             upper_bound=s_upper if normal else None, estimates={}, best=None,
             bounds_rigorous=False, context=contexts.get(n),
         )
@@ -723,8 +748,22 @@ def check_case(
     return CheckResult(
         case=case.name, path=case.path, architecture=arch, volume_fraction=vf,
         arrangement=case.composite.arrangement, properties=ordered, curves=curves,
-        notes=tuple(notes), inputs=tuple(inputs),
+        notes=tuple(notes), inputs=tuple(inputs), stiffness=eff,
+        stiffness_source=None if eff is None else ("load_cases" if averaged_stress else "matrix"),
     )
+
+
+def _check_strain_range(value: Any) -> tuple[float, float]:
+    """Validate a strain range (low, high) with 0 <= low < high, both finite."""
+    try:
+        lo, hi = (float(v) for v in value)
+    except (TypeError, ValueError):
+        raise InputError(
+            f"strain_range = {value!r} must be two strains (low, high), e.g. (0.0005, 0.0025)"
+        ) from None
+    if not (np.isfinite(lo) and np.isfinite(hi) and 0.0 <= lo < hi):
+        raise InputError(f"strain_range = {value!r} must satisfy 0 <= low < high (finite)")
+    return lo, hi
 
 
 _ORDER = (
@@ -751,8 +790,12 @@ def _cross_checks(
         angles = _layup_angles(case)
         turned = sorted(((a + 90.0) % 180.0) for a in angles)
         symmetric = np.allclose(sorted(a % 180.0 for a in angles), turned)
+    comp = case.composite
+    spheres = (arch == "particulate" and comp.inclusion == "sphere"
+               and comp.arrangement in ("random", "square"))
     for name, reasons in consistency_reasons(
-        values, stack=stack, symmetric=symmetric, arrangement=case.composite.arrangement
+        values, stack=stack, symmetric=symmetric, arrangement=comp.arrangement,
+        isotropic=spheres,
     ).items():
         results[name] = results[name].with_reasons(reasons, "suspect")
     # one wrong cell size shows in all three normal load cases
@@ -765,14 +808,31 @@ def _cross_checks(
                   for d, n in zip(("x", "y", "z"), normal, strict=True)}
         fit = fit_size_error(ratios, size)
         if fit is not None:
-            text = size_error_reason(fit[0], fit[1], size)
+            axis, factor = fit
+            text = size_error_reason(axis, factor, size)
             notes.append(text)
             for n in normal:
-                r = results[n]
-                if r.verdict != "consistent":  # first among the causes (after a unit slip)
-                    causes = [i for i, x in enumerate(r.reasons) if x.startswith("Likely cause")]
-                    at = len(r.reasons) if not causes else causes[0]
-                    if causes and "A unit slip" in r.reasons[at]:
-                        at += 1
-                    new = (*r.reasons[:at], f"Across load cases: {text}", *r.reasons[at:])
-                    results[n] = replace(r, reasons=new)
+                if results[n].verdict != "consistent":
+                    results[n] = _with_cause(results[n], f"Across load cases: {text}")
+            # a Poisson ratio divides a lateral strain by an axial one: the wrong edge scales it
+            for i, j in ((i, j) for i in "xyz" for j in "xyz" if i != j and axis in (i, j)):
+                name = property_name(arch, i, j)
+                r = results.get(name)
+                if (r is None or r.verdict == "consistent" or not r.best_estimate
+                        or contexts.get(name, Diagnosis()).source != "force_displacement"):
+                    continue
+                f = factor if j == axis else 1.0 / factor
+                if abs(np.log(r.value / r.best_estimate / f)) < np.log(1.15):
+                    which = "lateral" if j == axis else "axial"
+                    results[name] = _with_cause(r, (
+                        f"Across load cases: {text} The {which} strain of {name} is taken over "
+                        f"that edge, which scales {name} by {f:.3g}, as seen."))
+
+
+def _with_cause(r: PropertyCheck, text: str) -> PropertyCheck:
+    """Insert a cause first among the likely causes (after a unit slip)."""
+    causes = [i for i, x in enumerate(r.reasons) if x.startswith("Likely cause")]
+    at = len(r.reasons) if not causes else causes[0]
+    if causes and "A unit slip" in r.reasons[at]:
+        at += 1
+    return replace(r, reasons=(*r.reasons[:at], text, *r.reasons[at:]))

@@ -9,10 +9,18 @@ Every rule works on the *sign-normalised loading envelope*:
    metrics of its tension twin.
 2. **Loading envelope.** Only the points up to the ultimate point whose strain reaches a new
    running maximum are kept: unloading segments, and the reloading that follows until the
-   previous strain is passed again, are ignored.
+   previous strain is passed again, are ignored. When the strain itself is noisy (see 3), the
+   test runs on the strain smoothed as below, and a point is dropped only when it lies more
+   than 6 strain-noise sigmas below the running maximum, so that noise is not taken for
+   unloading.
 3. **Noise level.** The noise sigma of the stress is read from the second differences of the
    envelope stresses, d2 (robust: 1.4826 x median absolute deviation / sqrt(6), since
-   var(d2) = 6 sigma^2 for white noise). Smooth curves give a sigma near zero.
+   var(d2) = 6 sigma^2 for white noise). Smooth curves give a sigma near zero. The noise of the
+   strain is read alike from its fourth differences (var(d4) = 70 sigma^2; they leave the smooth
+   trend of an unevenly stepped record out) and counts only when above 2 % of the median strain
+   step; it enters as stress noise times the initial slope (the slope over the first tenth of
+   the points), and then the modulus is fitted to the smoothed curve, since least squares on
+   noisy strains would underestimate the slope.
 
 Linear range (automatic)
 ------------------------
@@ -36,8 +44,9 @@ Offset yield
 The offset line is the fit line moved along the strain axis by ``offset`` (default 0.002, the
 usual 0.2 % offset: common practice, no source). The yield point is the first crossing of the
 curve below that line that persists (for noisy curves, with a noise sigma above 1e-6 of the
-peak stress and 50 points or more, the curve is first smoothed by a centred moving average over
-about 1 % of the points, 5 to 501, and the crossing must hold for as many points),
+peak stress and 50 points or more, the curve -- stress and strain alike -- is first smoothed by a
+centred moving average over about 1 % of the points, 5 to 501, and the crossing must hold for
+as many points),
 interpolated linearly between the two points that bracket it. When the curve never falls below
 the line before its ultimate point, the yield strength is None and the note says why.
 
@@ -88,6 +97,8 @@ _RUN = 5  # consecutive non-linear windows that end the linear range
 _FAIL_DROP = 0.01  # stress drop after the ultimate that shows failure
 _NOISE_FLOOR = 1e-6  # relative noise below which no smoothing is done
 _MIN_SMOOTH_POINTS = 50
+_ENV_Z = 6.0  # strain noise sigmas a drop must exceed to count as unloading
+_STEP_NOISE = 0.02  # strain noise below this fraction of the median step is ignored
 
 
 @dataclass(frozen=True)
@@ -310,9 +321,19 @@ def curve_metrics(
             "opposite signs; check the sign convention of the force and displacement columns"
         )
 
-    # 2. loading envelope up to the ultimate point
+    # 2. loading envelope up to the ultimate point: points whose strain reaches a new running
+    #    maximum (within the noise of the strain, when the strain itself is noisy)
     xl = xn[: iu + 1]
-    env = np.flatnonzero(xl >= np.maximum.accumulate(xl))
+    xscale = float(np.max(np.abs(xl)))
+    sigma_x = _strain_noise(xl / xscale) if xscale > 0 else 0.0
+    if sigma_x > 0.0:
+        wx = _smooth_width(xl.size)
+        xs = _moving_average(xl, wx) if wx > 1 else xl
+        slack = _ENV_Z * sigma_x * xscale / np.sqrt(wx)
+        env = np.flatnonzero(xs >= np.maximum.accumulate(xs) - slack)
+    else:
+        sigma_x = 0.0
+        env = np.flatnonzero(xl >= np.maximum.accumulate(xl))
     if env.size < 3:
         raise InputError(
             f"{label}: only {env.size} loading point(s) up to the ultimate stress at point "
@@ -331,32 +352,41 @@ def curve_metrics(
     v = ye / peak
     m = u.size
 
-    # 3. noise and smoothing
-    sigma = _noise(v)
+    # 3. noise and smoothing: stress noise, plus strain noise times the initial slope
+    sigma_v = _noise(v)
+    sigma = sigma_v
+    if sigma_x > 0.0:
+        sigma = float(np.hypot(sigma_v, _initial_slope(u, v) * sigma_x * xscale / xspan))
+        notes.append(f"noisy strain (sigma {sigma_x * xscale:.3g})")
     width = 1
     if sigma > _NOISE_FLOOR and m >= _MIN_SMOOTH_POINTS:
-        width = int(np.clip(m // 100, 5, 501)) | 1
+        width = _smooth_width(m)
         notes.append(f"noisy curve (sigma {sigma * peak:.3g} Pa): smoothed over {width} points")
     vs = _moving_average(v, width) if width > 1 else v
+    us = _moving_average(u, width) if width > 1 else u
     sigma_s = sigma / np.sqrt(width)
 
-    # linear range and fit
+    # linear range and fit; a noisy strain is fitted after smoothing (least squares on noisy
+    # abscissae underestimates the slope), with r2 from the points as read
+    uf, vf = (us, vs) if sigma_x > 0.0 else (u, v)
     if fit_range is None:
-        i0, i1, found = 0, *_linear_end(u, v, sigma, linear_tolerance)
+        i0, i1, found = 0, *_linear_end(uf, vf, sigma, linear_tolerance)
         if not found:
             notes.append("no linear range found: modulus fitted over the first points")
     else:
         i0, i1 = _user_window(fit_range, xe, label)
-    slope, icpt, r2 = _fit(u[i0 : i1 + 1], v[i0 : i1 + 1])
+    slope, icpt, r2 = _fit(uf[i0 : i1 + 1], vf[i0 : i1 + 1])
+    if uf is not u:
+        r2 = _r2(u[i0 : i1 + 1], v[i0 : i1 + 1], slope, icpt)
     if not slope > 0:
         raise InputError(
             f"{label}: the initial slope {slope * peak / xspan:.4g} Pa is not positive (stress "
             "and strain of opposite sign, or no loading)"
         )
 
-    # offset yield
+    # offset yield (on the smoothed curve: stress and strain averaged alike)
     off = offset / xspan
-    d = vs - (slope * (u - off) + icpt)
+    d = vs - (slope * (us - off) + icpt)
     iy = _first_persistent(d <= 0.0, width, 0)
     yield_strength: float | None = None
     yield_strain: float | None = None
@@ -377,23 +407,23 @@ def curve_metrics(
         yield_note = "no offset yield: the curve starts below the offset line"
     else:
         t = d[iy - 1] / (d[iy - 1] - d[iy])
-        uy = u[iy - 1] + t * (u[iy] - u[iy - 1])
+        uy = us[iy - 1] + t * (us[iy] - us[iy - 1])
         yield_strain = float(sgn * uy * xspan)
         yield_strength = float(sgn * peak * (slope * (uy - off) + icpt))
 
     # proportional limit
-    line = slope * u + icpt
+    line = slope * us + icpt
     g = np.abs(vs - line) - np.maximum(proportional_tolerance * np.abs(line), _Z * sigma_s)
-    start = int(np.searchsorted(u, 0.5 * (u[i0] + u[i1])))
+    start = int(np.searchsorted(np.maximum.accumulate(us), 0.5 * (u[i0] + u[i1])))
     ip = _first_persistent(g > 0.0, width, start)
     if ip is None:
-        pl_u, pl_v = u[-1], vs[-1]
+        pl_u, pl_v = us[-1], vs[-1]
         notes.append("the curve stays on the fit line up to the ultimate point")
     elif ip == start:
-        pl_u, pl_v = u[ip], vs[ip]
+        pl_u, pl_v = us[ip], vs[ip]
     else:
         t = g[ip - 1] / (g[ip - 1] - g[ip])
-        pl_u = u[ip - 1] + t * (u[ip] - u[ip - 1])
+        pl_u = us[ip - 1] + t * (us[ip] - us[ip - 1])
         pl_v = vs[ip - 1] + t * (vs[ip] - vs[ip - 1])
 
     # failure and energy
@@ -490,6 +520,34 @@ def _noise(v: Array) -> float:
     return float(1.4826 * mad / np.sqrt(6.0))
 
 
+def _strain_noise(x: Array) -> float:
+    """Robust noise sigma of a strain record (scaled to about 1), 0 where it does not matter.
+
+    Fourth differences (var = 70 sigma^2 for white noise) leave the smooth trend of an unevenly
+    stepped record out; noise below 2 % of the median step, or below the floor, counts as 0.
+    """
+    if x.size < 8:
+        return 0.0
+    d4 = np.diff(x, 4)
+    sigma = float(1.4826 * np.median(np.abs(d4 - np.median(d4))) / np.sqrt(70.0))
+    step = float(np.median(np.abs(np.diff(x))))
+    return sigma if sigma > max(_NOISE_FLOOR, _STEP_NOISE * step) else 0.0
+
+
+def _smooth_width(n: int) -> int:
+    """Odd smoothing width for n points: about 1 % of them, 5 to 501 (1 below 50 points)."""
+    if n < _MIN_SMOOTH_POINTS:
+        return 1
+    return int(np.clip(n // 100, 5, 501)) | 1
+
+
+def _initial_slope(u: Array, v: Array) -> float:
+    """Magnitude of the slope over the first tenth of the points (at least 10), else 1."""
+    k = min(u.size, max(10, u.size // 10))
+    slope = abs(_fit(u[:k], v[:k])[0])
+    return slope if np.isfinite(slope) and slope > 0 else 1.0
+
+
 def _moving_average(v: Array, width: int) -> Array:
     """Centred moving average over ``width`` points, the window clipped at the ends."""
     c = np.concatenate(([0.0], np.cumsum(v)))
@@ -531,6 +589,14 @@ def _fit(x: Array, y: Array) -> tuple[float, float, float]:
     res = dy - slope * dx
     r2 = 1.0 - _dot(res, res) / syy if syy > 0 else 1.0
     return slope, icpt, r2
+
+
+def _r2(x: Array, y: Array, slope: float, icpt: float) -> float:
+    """Coefficient of determination of a given line through points."""
+    res = y - (slope * x + icpt)
+    dy = y - y.mean()
+    syy = _dot(dy, dy)
+    return 1.0 - _dot(res, res) / syy if syy > 0 else 1.0
 
 
 def _window_slopes(
@@ -593,8 +659,9 @@ def _user_window(fit_range: Any, xe: Array, label: str) -> tuple[int, int]:
             f"{label}: fit_range ({lo:g}, {hi:g}) mixes signs; give strain magnitudes"
         )
     lo, hi = sorted((abs(lo), abs(hi)))
-    i0 = int(np.searchsorted(xe, lo, side="left"))
-    i1 = int(np.searchsorted(xe, hi, side="right")) - 1
+    top = np.maximum.accumulate(xe)  # sorted even where a noisy strain steps back
+    i0 = int(np.searchsorted(top, lo, side="left"))
+    i1 = int(np.searchsorted(top, hi, side="right")) - 1
     if i1 - i0 + 1 < 3:
         raise InputError(
             f"{label}: fit_range ({lo:g}, {hi:g}) holds {max(i1 - i0 + 1, 0)} loading point(s); "

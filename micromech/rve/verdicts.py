@@ -377,8 +377,9 @@ def _bound_name(kind: str, side: str) -> str:
 
 _LIMIT_TEXT = {
     "lower": ("a bonded composite whose fibres are stronger than the matrix carries at least "
-              "the matrix yield stress, since a uniform stress at that level is admissible; look "
-              "for damage or debonding in the model, or a unit slip in the plastic input"),
+              "the matrix yield stress (in shear its von Mises shear yield stress, yield / "
+              "sqrt(3)), since a uniform stress at that level is admissible; look for damage or "
+              "debonding in the model, or a unit slip in the plastic input"),
     "upper": ("a uniform strain rate bounds the limit stress by the Voigt average of the phase "
               "strengths; check the force unit, the loaded area and the strength inputs"),
 }

@@ -76,3 +76,11 @@ def test_bad_target_is_an_error(case_file):
     r = run("size", str(case_file), "-t", "E2~9GPa")
     assert r.exit_code == 2
     assert "expected NAME=VALUE, NAME>=VALUE or NAME<=VALUE" in r.stderr
+
+
+def test_plot_that_cannot_be_written_is_refused_before_sizing(case_file, tmp_path):
+    r = run("size", str(case_file), "--target", "E2=9GPa", "--plot",
+            str(tmp_path / "missing" / "s.png"))
+    assert r.exit_code == 2 and "error: --plot = " in r.output and "does not exist" in r.output
+    r = run("size", str(case_file), "--target", "E2=9GPa", "--plot", str(tmp_path / "s.xyz"))
+    assert r.exit_code == 2 and "format 'xyz' is not an image format" in r.output

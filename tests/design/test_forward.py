@@ -167,3 +167,20 @@ def test_laminate_thicknesses_of_the_wrong_length_are_an_error():
 def test_unknown_bending_is_an_error():
     with pytest.raises(InputError, match="bending: expected 'free' or 'restrained'"):
         laminate_in_plane(**PLY, angles=[0], bending="clamped")  # type: ignore[arg-type]
+
+
+@pytest.mark.parametrize("bending", ["free", "restrained"])
+def test_invariant_form_equals_the_laminate_package_for_random_stacks(bending):
+    # two implementations of classical laminate theory (invariants here, Q-bar matrices in
+    # micromech.laminate): agreement to rounding for random angles, thicknesses and plies
+    rng = np.random.default_rng(2024)
+    for _ in range(25):
+        n = int(rng.integers(1, 7))
+        angles = rng.uniform(-90.0, 90.0, n)
+        t = rng.uniform(0.05e-3, 0.5e-3, n)
+        ply = dict(E1=rng.uniform(20e9, 300e9), E2=rng.uniform(3e9, 15e9),
+                   nu12=rng.uniform(0.1, 0.4), G12=rng.uniform(1e9, 8e9))
+        ref = Laminate.from_angles(angles, PlyMaterial(**ply), t).in_plane_constants(bending)
+        got = laminate_in_plane(**ply, angles=angles, thicknesses=t, bending=bending)
+        for k in ("Ex", "Ey", "Gxy", "nuxy"):
+            assert float(got[k]) == pytest.approx(getattr(ref, k), rel=1e-9, abs=1e-12)

@@ -83,3 +83,20 @@ def test_unknown_relation_is_an_error():
 def test_non_finite_value_is_an_error():
     with pytest.raises(InputError, match="value inf must be finite"):
         SizingTarget("E2", float("inf"))
+
+
+@pytest.mark.parametrize(("text", "message"), [
+    ("E2=-9GPa", r"target E2: value -9 GPa must be positive \(moduli, densities"),
+    ("density<=0 g/cm^3", "target density: value 0 g/cm\\^3 must be positive"),
+    ("E1/density>=-1 GPa/(g/cm^3)", "target E1/density: value -1 GPa/.* must be positive"),
+    ("weight_fraction=1.2", r"target weight_fraction: value 1.2 must lie in \[0, 1\]"),
+])
+def test_impossible_values_are_refused(text, message):
+    with pytest.raises(InputError, match=message):
+        SizingTarget.parse(text)
+
+
+def test_signed_properties_may_be_negative():
+    assert SizingTarget.parse("alpha1<=-0.5e-6 1/K").value == pytest.approx(-0.5e-6)
+    assert SizingTarget.parse("nu12>=-0.1").value == -0.1
+    assert SizingTarget.parse("nu12/density<=1e-3").value == 1e-3

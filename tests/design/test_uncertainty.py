@@ -153,6 +153,8 @@ def test_unknown_output_is_an_error():
 def test_input_that_is_not_a_number_is_an_error():
     with pytest.raises(InputError, match="input 'x': expected an Uncertain or a number, got str"):
         propagate(rom, {"x": "abc"}, 10)
+    with pytest.raises(InputError, match=r"input 'Vf': fixed value nan must be finite"):
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": float("nan")}, 10)
 
 
 @pytest.mark.parametrize(

@@ -111,7 +111,13 @@ def test_band_takes_the_tightest_bounds():
     assert float(hi) == pytest.approx(float(est["hashin_shtrikman_upper"].E2))
     assert est.band("nu12") is not None and est.band("nu23") is None
     sph = estimate(Composite(GLASS, EPOXY, 0.3, inclusion="sphere"))
-    assert sph.band("nu12") is None and sph.band("alpha1") is None
+    assert sph.band("nu12") is None  # Poisson's ratio of an isotropic mixture is not bounded
+    # spheres: Levin's relation with the HS bounds on K bounds the CTE (Rosen & Hashin 1970)
+    lo, hi = sph.band("alpha1")
+    assert float(lo) < float(sph["mori_tanaka"].alpha1) * (1 + 1e-12)
+    assert float(sph["mori_tanaka"].alpha1) <= float(hi) * (1 + 1e-12)
+    spd = estimate(Composite(GLASS, EPOXY, 0.3, inclusion="spheroid", aspect_ratio=4.0))
+    assert spd.band("alpha1") is None  # Willis bounds carry no CTE
 
 
 def test_band_is_none_without_bounds_on_a_constant():

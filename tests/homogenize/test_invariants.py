@@ -107,3 +107,32 @@ def test_spheroid_estimates_are_admissible(Ef, nuf, Em, num, ar, orientation):
         for n in ("E1", "E2", "G12", "G23"):
             assert _le(R.get(n), lo.get(n)) and _le(lo.get(n), mt.get(n)), n
             assert _le(mt.get(n), hi.get(n)) and _le(hi.get(n), V.get(n)), n
+
+
+@settings(max_examples=60, deadline=None)
+@given(Ef=moduli, nuf=poisson, Em=st.floats(1e8, 1e12), num=poisson,
+       vf=st.lists(st.floats(0.0, 1.0), min_size=1, max_size=8))
+def test_stiff_spheres_order_reuss_hs_mori_tanaka_hs_voigt_at_random_fractions(Ef, nuf, Em, num,
+                                                                                vf):
+    # stiff inclusions (K_f >= K_m, G_f >= G_m): Reuss <= HS lower = MT <= HS upper <= Voigt
+    # for K, G and so for E = 9KG/(3K + G), increasing in both (Hill 1952; Hashin & Shtrikman
+    # 1963; Weng 1984)
+    f, m = FibrePhase.isotropic(Ef, nuf), MatrixPhase(Em, num)
+    Kf, Km = Ef / (3 * (1 - 2 * nuf)), Em / (3 * (1 - 2 * num))
+    if not (Kf >= Km and float(f.G12) >= float(m.G)):
+        f, m = FibrePhase.isotropic(Em, num), MatrixPhase(Ef, nuf)  # swap: stiff inclusions
+        Kf, Km = Km, Kf
+    if not (Kf >= Km and float(f.G12) >= float(m.G)):
+        return  # phases not well ordered: covered by the chain test above
+    c = np.array(vf)
+    V, R = voigt_reuss(f, m, c)
+    lo, hi = hashin_shtrikman(f, m, c)
+    mt = mori_tanaka(f, m, c, "sphere")
+    for n in ("E1", "G12"):
+        chain = [R.get(n), lo.get(n), mt.get(n), hi.get(n), V.get(n)]
+        for a, b in zip(chain, chain[1:], strict=False):
+            assert _le(a, b, atol=1e-6), n
+    for r in (V, R, lo, hi, mt):
+        _finite(r)
+        C = r.stiffness()
+        assert np.all(tensors.is_symmetric(C, 1e-8)) and np.all(tensors.is_positive_definite(C))

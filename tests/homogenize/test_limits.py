@@ -38,3 +38,21 @@ def test_every_fibre_model_meets_both_phases(fibre, request, epoxy):
             if got is None:
                 continue
             assert np.allclose(got, [at0, float(at1)], rtol=1e-9, atol=1e-12), (key, name)
+
+
+def test_particle_bounds_and_estimates_meet_both_phases(glass, epoxy):
+    # exact limits: at vf = 0 the matrix, at vf = 1 the particle phase (Hashin & Shtrikman 1963;
+    # Willis 1977; Benveniste 1987), for spheres and aligned spheroids
+    from micromech.homogenize import hashin_shtrikman, hashin_shtrikman_spheroid
+
+    results = [*hashin_shtrikman(glass, epoxy, ENDS), *hashin_shtrikman_spheroid(glass, epoxy,
+                                                                                 ENDS, 6.0),
+               mori_tanaka(glass, epoxy, ENDS, "sphere"),
+               mori_tanaka(glass, epoxy, ENDS, "spheroid", 0.2)]
+    Gm, Gf = 3.5e9 / 2.7, 72e9 / 2.44
+    for r in results:
+        for name, at0, at1 in (("E1", 3.5e9, 72e9), ("E2", 3.5e9, 72e9), ("G12", Gm, Gf),
+                               ("G23", Gm, Gf)):
+            assert np.allclose(r.get(name), [at0, at1], rtol=1e-9), (r.model, name)
+        if r.alpha1 is not None:
+            assert np.allclose(r.alpha1, [60e-6, 5e-6], rtol=1e-9), r.model

@@ -183,3 +183,34 @@ def test_fraction_error_names_the_index(glass, epoxy):
 def test_fibres_and_voids_above_one_raise(glass, epoxy):
     with pytest.raises(FractionError, match="vf \\+ void_fraction = 1.1 exceeds 1"):
         mori_tanaka(glass, epoxy, 0.9, void_fraction=0.2)
+
+
+def _mandel_eshelby(nu, ar):
+    """Mandel 6x6 matrix of the Eshelby tensor from its components (Voigt order 11..12)."""
+    from micromech.homogenize import eshelby_components
+
+    s = {k: float(v) for k, v in eshelby_components(nu, ar).items()}
+    M = np.zeros((6, 6))
+    M[0, 0] = s["S1111"]
+    M[1, 1] = M[2, 2] = s["S2222"]
+    M[1, 2] = M[2, 1] = s["S2233"]
+    M[1, 0] = M[2, 0] = s["S2211"]
+    M[0, 1] = M[0, 2] = s["S1122"]
+    M[3, 3] = 2 * s["S2323"]
+    M[4, 4] = M[5, 5] = 2 * s["S1212"]
+    return M
+
+
+@pytest.mark.parametrize("ar", [0.1, 1.0, 4.0])
+def test_walpole_algebra_equals_benvenistes_formula_in_6x6_matrices(carbon, epoxy, ar):
+    # Benveniste (1987) Eqs. 9 and 23 evaluated with plain 6x6 Mandel matrices (an independent
+    # route to the closed Walpole algebra), transversely isotropic spheroids
+    c = 0.35
+    C0 = tensors.to_mandel(tensors.isotropic_stiffness(3.5e9, 0.35))
+    C1 = tensors.to_mandel(tensors.transversely_isotropic_stiffness(230e9, 15e9, 0.2, 15e9, 0.07))
+    I6 = np.eye(6)
+    A = np.linalg.inv(I6 + _mandel_eshelby(0.35, ar) @ np.linalg.inv(C0) @ (C1 - C0))
+    C = ((1 - c) * C0 + c * C1 @ A) @ np.linalg.inv((1 - c) * I6 + c * A)
+    got = mori_tanaka(carbon, epoxy, c, "spheroid" if ar != 1.0 else "sphere",
+                      ar if ar != 1.0 else None).stiffness()
+    assert np.allclose(tensors.from_mandel(C), got, rtol=1e-10, atol=1e-6 * np.max(got))

@@ -1,7 +1,9 @@
 import json
+import re
 from pathlib import Path
 
 import numpy as np
+import pytest
 from click.testing import CliRunner
 
 from micromech.cli import cli
@@ -95,3 +97,66 @@ def test_cli_without_a_composite_exits_2(tmp_path):
 def test_cli_missing_file_exits_2(tmp_path):
     res = CliRunner().invoke(cli, ["estimate", str(tmp_path / "nope.toml")])
     assert res.exit_code == 2
+
+
+BAD_CASES = [
+    ('name = "x\n', r"case\.toml: malformed TOML: .*line 1"),
+    (CASE.replace("volume_fraction", "volume_fracton"),
+     r"\[composite\] unknown key 'volume_fracton'; did you mean 'volume_fraction'\?"),
+    (CASE.replace('E = "72 GPa"', 'E = "72 mm"'),
+     r"\[fibre\]: .*E expects a pressure .*got '72 mm', which is a length"),
+    (CASE.replace("volume_fraction = 0.55", 'volume_fraction = 0.8\narrangement = "square"'),
+     r"\[composite\] volume_fraction = 0\.8 exceeds the packing limit 0\.7854 of square"),
+    (CASE.replace('[fibre]\nE = "72 GPa"\nnu = 0.22', '[fibre]\nuse = "e-glas"'),
+     r"\[fibre\]: unknown material 'e-glas'; did you mean 'e-glass'"),
+    (CASE.replace("volume_fraction = 0.55", 'inclusion = "sphere"'),
+     r"\[composite\] missing required key 'volume_fraction'"),
+    (CASE.split("[fibre]")[0] + CASE.split("alpha = \"5e-6 1/K\"\n")[1],
+     r"estimate needs \[fibre\], \[matrix\] and \[composite\] .*; missing: \[fibre\]$"),
+]
+
+
+@pytest.mark.parametrize(("text", "match"), BAD_CASES)
+def test_cli_bad_case_exits_2_with_one_error_line(tmp_path, text, match):
+    res = CliRunner().invoke(cli, ["estimate", _case(tmp_path, text), "--json"])
+    assert res.exit_code == 2, res.output
+    lines = res.output.strip().splitlines()
+    assert len(lines) == 1 and lines[0].startswith("error: "), res.output
+    assert re.search(match, lines[0]), lines[0]
+    assert "Traceback" not in res.output
+
+
+@pytest.mark.parametrize(
+    ("args", "match"),
+    [(["--plot", "p.txt"], r"error: --plot = '.*p\.txt': the file name must end in \.png"),
+     (["--plot", "no/such/dir/p.png"], r"error: --plot = .*: folder .* does not exist"),
+     (["--misalignment", "0"], r"error: --misalignment = 0\.0: the fibre misalignment must be "
+                               r"positive")],
+)
+def test_cli_bad_options_exit_2(tmp_path, args, match):
+    res = CliRunner().invoke(cli, ["estimate", _case(tmp_path), *[
+        str(tmp_path / a) if a.endswith((".txt", ".png")) else a for a in args]])
+    assert res.exit_code == 2 and re.search(match, res.output), res.output
+
+
+def test_plot_rejects_an_unknown_format_before_drawing(tmp_path):
+    from micromech.errors import InputError
+
+    with pytest.raises(InputError, match=r"path = '.*e\.jpg': the file name must end in \.png, "
+                                         r"\.svg, \.pdf \(got \.jpg\)"):
+        plot_estimates(estimate(Composite(GLASS, EPOXY, 0.55)), tmp_path / "e.jpg")
+
+
+def test_cli_json_models_are_the_contract_keys_in_si(tmp_path):
+    # DESIGN.md "JSON output": model keys, the nine constants, alpha1, alpha2, source; SI; null
+    from micromech.homogenize import MODEL_KEYS
+    from micromech.results import CONSTANT_NAMES
+
+    d = json.loads(CliRunner().invoke(cli, ["estimate", _case(tmp_path), "--json"]).output)
+    assert list(d["models"]) == list(MODEL_KEYS)
+    for key, m in d["models"].items():
+        assert list(m) == [*CONSTANT_NAMES, "alpha1", "alpha2", "source"], key
+    # uniform strain: G12 is the volume average of the phase shear moduli (Voigt 1889), in Pa
+    assert d["models"]["voigt"]["G12"] == pytest.approx(0.55 * 72e9 / 2.44 + 0.45 * 3.5e9 / 2.7,
+                                                        rel=1e-12)
+    assert d["models"]["voigt"]["alpha1"] is None  # Voigt gives no CTE: null

@@ -65,3 +65,31 @@ def test_envelope_errors(cross_ply, tmp_path):
     b = failure_envelope(cross_ply, "Nx,Nxy", n_points=8)
     with pytest.raises(InputError, match="axes differ"):
         plot_envelopes([a, b], tmp_path / "x.png")
+
+
+@pytest.mark.parametrize("n_points", [10, 37, 361])
+def test_intercepts_are_the_first_ply_failure_loads_on_the_half_axes(cross_ply, n_points):
+    env = failure_envelope(cross_ply, "Nx,Nxy", "tsai_hill", n_points=n_points, delta_T=-50.0)
+    for key, load in (("+Nx", {"Nx": 1.0}), ("-Nx", {"Nx": -1.0}), ("+Nxy", {"Nxy": 1.0}),
+                      ("-Nxy", {"Nxy": -1.0})):
+        fpf = first_ply_failure(cross_ply, load, delta_T=-50.0, criterion="tsai_hill")
+        sign = -1.0 if key.startswith("-") else 1.0
+        assert env.intercepts[key] == pytest.approx(sign * fpf.load_factor, rel=1e-12)
+    assert env.as_dict()["intercepts"]["-Nx"] < 0.0
+
+
+def test_stress_axis_intercepts_are_average_stresses(cross_ply):
+    env = failure_envelope(cross_ply, "sx,sy", "max_stress", n_points=8)
+    fpf = first_ply_failure(cross_ply, {"Nx": 1.0}, criterion="max_stress")
+    # sx = Nx / h (exact)
+    assert env.intercepts["+sx"] == pytest.approx(fpf.load_factor / cross_ply.thickness,
+                                                  rel=1e-12)
+
+
+def test_plot_refuses_an_unknown_format_or_a_missing_folder(cross_ply, tmp_path):
+    e = failure_envelope(cross_ply, "Nx,Ny", n_points=8)
+    with pytest.raises(InputError, match=r"plot file = .*env.txt.*format 'txt' is not an image "
+                                         r"format.*png"):
+        plot_envelopes([e], tmp_path / "env.txt")
+    with pytest.raises(InputError, match=r"plot file = .*: folder .*missing.* does not exist"):
+        plot_envelopes([e], tmp_path / "missing" / "env.png")

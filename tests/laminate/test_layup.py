@@ -28,6 +28,10 @@ EXPANSIONS = [
     ("[0/90]3", (0, 90, 0, 90, 0, 90)),
     ("[0/45/90']s", (0, 45, 90, 45, 0)),
     ("[0']s", (0,)),
+    ("[0/45/9\u03050\u0305]s", (0, 45, 90, 45, 0)),  # overbar as copied from print (U+0305)
+    ("[0/45/90\u0304]s", (0, 45, 90, 45, 0)),  # overbar as a combining macron (U+0304)
+    ("[0/22.\u03055\u0305]s", (0, 22.5, 0)),
+    ("[0]5000s", (0,) * 10000),  # exactly MAX_PLIES
     ("[(0/(45/-45)2)_2]", (0, 45, -45, 45, -45, 0, 45, -45, 45, -45)),
     ("[ 0 / 22.5 / -67.5 ] s", (0, 22.5, -67.5, -67.5, 22.5, 0)),
     ("[+15/-0]", (15, 0)),
@@ -63,6 +67,14 @@ MALFORMED = [
     ("[(0/90]", r"position 7: expected '/' or '\)'"),
     ("[0/90]s2", r"character '2' at position 8: expected nothing, 'T', a count"),
     ("[0/90]2T", r"character 'T' at position 8"),
+    ("[0/4\u03055/90]s", r"position 5: the mid-plane mark .* must be on the last ply"),
+    ("[0/90\u0305]", r"position 6: the mid-plane mark .* needs the plain symmetric suffix"),
+    ("[(0/90\u0305)]s", r"position 7: the mid-plane mark .* cannot be used inside a group"),
+    ("[\u03050]s", r"position 2: expected a ply angle"),
+    ("[0]10000s", r"position 4: the code would expand to 20000 plies, more than the limit "
+                  r"of 10000"),
+    ("[(0/90)6000]", r"position 8: the code would expand to 12000 plies"),
+    ("[0_20000]", r"position 3: the code would expand to 20000 plies"),
 ]
 
 

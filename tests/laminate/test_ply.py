@@ -145,3 +145,78 @@ def test_ply_thickness_and_angle_are_checked(graphite_epoxy):
         Ply(graphite_epoxy, float("nan"), 1e-3)
     with pytest.raises(InputError, match="expected a PlyMaterial, got dict"):
         Ply({"E1": 1}, 0.0, 1e-3)  # type: ignore[arg-type]
+
+
+# --- constituents -> ply -> laminate in one call -------------------------------------------------
+
+def _glass_epoxy(vf=0.55):
+    from micromech.materials import Composite, Isotropic
+
+    # invented constants of the magnitude of E-glass and epoxy
+    return Composite(Isotropic(name="glass", E="72 GPa", nu=0.22, alpha="5e-6 1/K"),
+                     Isotropic(name="resin", E="3.5 GPa", nu=0.35, alpha="60e-6 1/K"), vf)
+
+
+def test_composite_becomes_a_ply_through_the_named_estimate():
+    from micromech.homogenize import estimate
+
+    c = _glass_epoxy()
+    m = PlyMaterial.from_composite(c, "rule_of_mixtures", strengths={"Xt": "1 GPa"})
+    # E1 = Ef Vf + Em (1 - Vf) (Jones 1999, 2nd ed., Eq. 3.6; exact algebra): 41.175 GPa
+    assert m.E1 == pytest.approx(0.55 * 72e9 + 0.45 * 3.5e9, rel=1e-14)
+    assert m.name == "rule_of_mixtures estimate" and "Voigt" in m.source
+    assert m.strengths.Xt == pytest.approx(1e9)
+    mt = PlyMaterial.from_composite(c)  # Mori-Tanaka by default
+    ref = estimate(c).models["mori_tanaka"]
+    assert (mt.E2, mt.G12, mt.nu23) == pytest.approx(
+        (float(ref.E2), float(ref.G12), float(ref.nu23)), rel=1e-14)
+    assert mt.has_3d and mt.has_expansion
+
+
+def test_composite_with_a_model_that_does_not_apply_is_refused():
+    from micromech.materials import Composite, Isotropic
+
+    beads = Composite(Isotropic(E="70 GPa", nu=0.22), Isotropic(E="3 GPa", nu=0.35), 0.3,
+                      inclusion="sphere")
+    with pytest.raises(InputError, match=r"ply model = 'chamis' does not apply to this "
+                                         r"composite \(.*sphere.*\); available: .*mori_tanaka"):
+        PlyMaterial.from_composite(beads, "chamis")
+
+
+def test_composite_with_several_fractions_is_refused_as_a_ply():
+    with pytest.raises(InputError, match=r"volume_fraction has shape \(2,\); a ply needs one"):
+        PlyMaterial.from_composite(_glass_epoxy(np.array([0.4, 0.5])))
+
+
+def test_coerce_takes_every_source_of_ply_constants():
+    c = _glass_epoxy()
+    ply = PlyMaterial(E1=140e9, E2=10e9, nu12=0.3, G12=5e9)
+    assert PlyMaterial.coerce(ply) is ply
+    assert PlyMaterial.coerce(ply, strengths={"Yt": "50 MPa"}).strengths.Yt == pytest.approx(50e6)
+    assert PlyMaterial.coerce("carbon-standard").E1 == pytest.approx(230e9)  # registry key
+    ec = ElasticConstants.transversely_isotropic(np.array(140e9), 9e9, 0.31, 4.5e9)
+    assert PlyMaterial.coerce(ec).E2 == 9e9
+    assert PlyMaterial.coerce(c, model="halpin_tsai").name == "halpin_tsai estimate"
+    assert PlyMaterial.coerce(SimpleNamespace(E=70e9, nu=0.3)).G12 == pytest.approx(70e9 / 2.6)
+    with pytest.raises(InputError, match="needs E1, E2, nu12, G12"):
+        PlyMaterial.coerce(SimpleNamespace(name="blank"))
+
+
+def test_laminate_from_a_composite_in_one_call():
+    from micromech.laminate import Laminate
+
+    c = _glass_epoxy()
+    lam = Laminate.from_code("[0/90]s", c, "0.25 mm", strengths={"Xt": "1 GPa"})
+    ply = PlyMaterial.from_composite(c)
+    ref = Laminate.from_code("[0/90]s", ply, 0.25e-3)
+    np.testing.assert_allclose(lam.A, ref.A, rtol=1e-14)
+    in_plane = lam.in_plane_constants()
+    assert in_plane.Ex == pytest.approx(in_plane.Ey, rel=1e-12)  # balanced cross-ply (exact)
+    assert lam.plies[0].material.strengths.Xt == pytest.approx(1e9)
+    assert lam.plies[0].material is lam.plies[3].material  # estimated once
+    hybrid = Laminate.from_angles([0, 90, 0], [c, "carbon-standard", c], 0.2e-3,
+                                  model="cylinders")
+    assert hybrid.plies[0].material.name == "cylinders estimate"
+    assert hybrid.plies[1].material.E1 == pytest.approx(230e9)
+    with pytest.raises(InputError, match="2 materials given for 3 plies"):
+        Laminate.from_angles([0, 90, 0], (c, c), 0.2e-3)

@@ -137,3 +137,24 @@ def test_table_of_unsymmetric_laminate_shows_moment_units_and_restrained_constan
     stack = lam.stack_constants().as_dict()
     assert d["in_plane_restrained"]["Ex"] == pytest.approx(stack["Ex"], rel=1e-9)
     assert d["in_plane"]["Ex"] < d["in_plane_restrained"]["Ex"]  # free to bend: softer
+
+
+def test_command_intercepts_for_any_number_of_rays(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--envelope", "Nx,Ny",
+                                      "--criterion", "max_stress", "--points", "10"])
+    assert result.exit_code == 0, result.output
+    row = next(ln for ln in result.output.splitlines() if ln.strip().startswith("max_stress "))
+    assert len(row.split()) == 5 and " - " not in row  # four numbers, none missing
+
+
+@pytest.mark.parametrize(("plot", "message"), [
+    ("env.txt", "error: --plot = .*format 'txt' is not an image format"),
+    ("missing/env.png", "error: --plot = .*folder .* does not exist"),
+])
+def test_command_refuses_a_plot_it_cannot_write(case_file, tmp_path, plot, message):
+    import re
+
+    result = CliRunner().invoke(cli, ["laminate", str(case_file()), "--plot",
+                                      str(tmp_path / plot)])
+    assert result.exit_code == 2 and re.search(message, result.output)
+    assert "Traceback" not in result.output

@@ -74,3 +74,17 @@ def test_environment_variable_registry(tmp_path):
     f.write_text("[env-resin]\nE = 2e9\nnu = 0.3\n", encoding="utf-8")
     r = run(env={"MICROMECH_MATERIALS": str(f)})
     assert "env-resin" in r.output
+
+
+def test_missing_registry_path_exits_2_with_an_error_line(tmp_path):
+    r = run("--registry", str(tmp_path / "nope.toml"))
+    assert r.exit_code == 2
+    assert r.output.startswith("error: materials path ") and "does not exist" in r.output
+
+
+def test_bad_registry_file_names_the_file_once_and_the_entry(tmp_path):
+    f = tmp_path / "bad.toml"
+    f.write_text('[my-resin]\nE = "3.1 mm"\nnu = 0.36\n', encoding="utf-8")
+    r = run("--registry", str(f))
+    assert r.exit_code == 2 and r.output.count("bad.toml") == 1
+    assert "[my-resin]: isotropic material 'my-resin': E expects a pressure" in r.output

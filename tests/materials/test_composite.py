@@ -16,7 +16,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from micromech.errors import FractionError, InputError, InvalidMaterialError
+from micromech.errors import FractionError, InputError, InvalidMaterialError, UnitError
 from micromech.materials import (
     Composite,
     Isotropic,
@@ -230,3 +230,14 @@ def test_composite_is_frozen():
     c = Composite(GLASS, EPOXY, 0.3)
     with pytest.raises(AttributeError):
         c.volume_fraction = 0.4  # type: ignore[misc]
+
+
+@pytest.mark.parametrize("bad", [None, True, [0.3, "x"], {"a": 1}])
+def test_fraction_that_is_not_a_number_is_rejected(bad):
+    with pytest.raises(FractionError, match=r"volume_fraction = .* is not a number"):
+        Composite(GLASS, EPOXY, bad)
+
+
+def test_fraction_text_that_is_not_a_number_is_a_unit_error():
+    with pytest.raises(UnitError, match=r"volume_fraction expects a plain number, got '50 MPa'"):
+        Composite(GLASS, EPOXY, "50 MPa")

@@ -318,3 +318,21 @@ def test_project_errors_are_value_errors():
         Isotropic(E=-1.0, nu=0.3)
     with pytest.raises(MicromechError):
         Isotropic(E=-1.0, nu=0.3)
+
+
+@pytest.mark.parametrize("field", ["density", "fibre_diameter"])
+def test_infinite_size_is_rejected_naming_the_field(field):
+    with pytest.raises(InvalidMaterialError, match=rf"{field} = inf must be finite"):
+        Isotropic(E=3e9, nu=0.3, **{field: float("inf")})
+
+
+def test_materials_module_examples_run():
+    import doctest
+
+    import micromech.materials.composite
+    import micromech.materials.models
+    import micromech.materials.registry
+
+    for mod in (micromech.materials.models, micromech.materials.composite,
+                micromech.materials.registry):
+        assert doctest.testmod(mod).failed == 0, mod.__name__

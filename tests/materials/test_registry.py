@@ -224,6 +224,8 @@ def test_invalid_constants_in_a_file_name_file_and_key(tmp_path):
     with pytest.raises(InvalidMaterialError, match=r"v\.toml: \[soft\]: isotropic material "
                        r"'soft': nu = 0\.6 makes the stiffness not positive definite"):
         Registry([f], bundled=False, use_env=False)
+    with pytest.raises(InvalidMaterialError, match=r"^[^:]*v\.toml: \[soft\]: "):  # file once
+        Registry([f], bundled=False, use_env=False)
 
 
 def test_missing_path_is_an_error(tmp_path):

@@ -83,3 +83,38 @@ def test_report_folder_written(tmp_path):
     assert r.exit_code in (0, 1), r.output
     assert (out / "report.md").is_file() and (out / "report.html").is_file()
     assert "report written to" in r.output
+
+
+def test_strain_range_option_fixes_the_fit_window():
+    r = run(DEMO / "crossply.toml", "--json", "--strain-range", "0.0005,0.003")
+    assert r.exit_code == 0, r.output
+    fit = json.loads(r.output)["curves"]["x"]
+    assert fit["fit_automatic"] is False
+    assert 0.0005 <= fit["modulus_fit_range"][0] < fit["modulus_fit_range"][1] <= 0.003
+
+
+def test_bad_strain_range_option_exits_2():
+    r = run(DEMO / "crossply.toml", "--strain-range", "0.003")
+    assert r.exit_code == 2 and "error: --strain-range: '0.003' must be two strains" in r.output
+    r = run(DEMO / "crossply.toml", "--strain-range", "0.003,0.001")
+    assert r.exit_code == 2 and "must satisfy 0 <= low < high" in r.output
+
+
+def test_json_carries_the_effective_stiffness_of_a_matrix_case(tmp_path):
+    case = tmp_path / "ud.toml"
+    rows = "\n".join("  [" + ", ".join(("9" if i == j else "1") if i < 3 and j < 3 else
+                                       ("3" if i == j else "0") for j in range(6)) + "],"
+                     for i in range(6))
+    case.write_text(
+        'name = "invented example: stiffness only"\n'
+        '[fibre]\nuse = "glass-beads"\n[matrix]\nuse = "epoxy"\n'
+        '[composite]\nvolume_fraction = 0.3\ninclusion = "sphere"\n'
+        '[rve]\narchitecture = "particulate"\n'
+        f'[rve.stiffness]\nunit = "GPa"\nmatrix = [\n{rows}\n]\n'
+    )
+    r = run(case, "--json")
+    assert r.exit_code in (0, 1), r.output
+    d = json.loads(r.output)
+    assert d["stiffness"]["source"] == "matrix" and d["stiffness"]["positive_definite"] is True
+    assert d["stiffness"]["stiffness"][0][0] == 9e9 and d["stiffness"]["symmetry_error"] == 0.0
+    assert {"E1", "G12", "nu12"} <= set(d["properties"])

@@ -177,3 +177,53 @@ def test_demo_histories_are_what_the_generator_writes(tmp_path):
         made = (tmp_path / f"rve_{d}.csv").read_text()
         assert made == (DEMO / f"rve_{d}.csv").read_text()
         assert made.startswith("# invented example")
+
+
+def averaged_result() -> CheckResult:
+    """A check from six averaged load cases of an invented isotropic cell (no curves)."""
+    from micromech.case import case_from_dict
+    from micromech.tensors import isotropic_stiffness
+
+    C = isotropic_stiffness(5e9, 0.33)
+    eps = 1e-3 * np.eye(6)
+    cases = [{"stress": (C @ e).tolist(), "strain": e.tolist()} for e in eps]
+    return check_case(case_from_dict({
+        "name": "invented averaged cell", "fibre": {"use": "glass-beads"},
+        "matrix": {"use": "epoxy"},
+        "composite": {"volume_fraction": 0.2, "inclusion": "sphere"},
+        "rve": {"architecture": "particulate", "load_case": cases}}))
+
+
+def test_effective_stiffness_is_reported_in_text_markdown_and_html():
+    r = averaged_result()
+    text = format_check_text(r)
+    assert "Effective stiffness fitted to 6 averaged load cases" in text
+    assert "symmetry error 0 %" in text and "positive definite: yes" in text
+    assert "C (GPa)" in text
+    md = render_markdown(r)
+    assert "## Effective stiffness" in md and "| C (GPa) | 11 |" in md
+    html = render_html(r)
+    assert "<h2>Effective stiffness</h2>" in html and "positive definite: yes" in html
+
+
+def test_curve_table_lists_proportional_limit_final_strain_and_energy(tmp_path):
+    r = small_result(tmp_path)
+    text = format_check_text(r)
+    for head in ("proportional limit", "final strain", "energy to ultimate", "MJ/m^3"):
+        assert head in text, head
+
+
+def test_report_folder_that_cannot_be_created_raises(tmp_path):
+    blocker = tmp_path / "file"
+    blocker.write_text("x")
+    with pytest.raises(InputError, match="report folder .* cannot be created"):
+        write_check_report(small_result(tmp_path), blocker / "sub")
+
+
+def test_missing_demo_data_raises(monkeypatch, tmp_path):
+    import micromech.report.check as report_check
+    from micromech.errors import DataFileError
+
+    monkeypatch.setattr(report_check, "__file__", str(tmp_path / "a" / "b" / "check.py"))
+    with pytest.raises(DataFileError, match="demo data not found"):
+        report_check.demo_directory()

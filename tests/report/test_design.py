@@ -49,3 +49,25 @@ def test_plots_are_written_as_png(composite, tmp_path):
     ]
     for p in paths:
         assert p.read_bytes()[:4] == b"\x89PNG"
+
+
+def test_sweep_of_several_constituents_tells_them_apart(composite, tmp_path):
+    import numpy as np
+
+    from micromech.homogenize import FibrePhase
+
+    s = sweep_fraction(composite, "E2", points=11, models=["mori_tanaka"],
+                       fibre=FibrePhase.isotropic(np.array([72e9, 86e9, 100e9]), 0.22))
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    from micromech.report.design import _draw_sweep
+
+    fig, ax = plt.subplots()
+    _draw_sweep(ax, s)
+    labels = [t.get_text() for t in ax.get_legend().get_texts()]
+    plt.close(fig)
+    assert labels[-3:] == ["constituents 1", "constituents 2", "constituents 3"]
+    assert plot_sweep(s, tmp_path / "three.png").read_bytes()[:4] == b"\x89PNG"

@@ -317,3 +317,235 @@ def test_skip_rows_of_a_load_case_are_honoured(tmp_path):
                                    "strain": {"column": "strain"}}]}}
     r = check_case(case_from_dict(data, path=tmp_path / "c.toml"))
     assert r.properties["E1"].verdict == "consistent"
+
+
+# --- histories synthesised in the test from the estimates (invented data) --------------------
+
+BOX = {"x": 60e-6, "y": 40e-6, "z": 30e-6}  # invented cell, deliberately not a cube
+_AX = "xyz"
+
+
+def _area_gauge(d):
+    if len(d) == 1:
+        a, b = (k for k in _AX if k != d)
+        return BOX[a] * BOX[b], BOX[d]
+    i, j = d
+    k = next(a for a in _AX if a not in d)
+    return BOX[i] * BOX[k], BOX[j]  # force along i on the face normal to j, gauge L_j
+
+
+def write_histories(folder, moduli, poisson=None, *, yield_stress=40e6, points=200,
+                    noise=1e-3, seed=0):
+    """Invented histories: linear at the given moduli, then a Ramberg-Osgood-like softening.
+
+    Force in mN and displacements in um, so that the file's units differ from SI.
+    """
+    rng = np.random.default_rng(seed)
+    cases = []
+    for d, mod in moduli.items():
+        s = np.linspace(0.0, 1.4 * yield_stress, points)
+        e = s / mod + 0.002 * (s / yield_stress) ** 10
+        area, gauge = _area_gauge(d)
+        f_mn = s * area * 1e3
+        f_mn = f_mn + rng.normal(0.0, noise * f_mn.max(), f_mn.size)
+        f_mn[0] = 0.0
+        cols, names = [f_mn, e * gauge * 1e6], ["F", "u"]
+        lateral = []
+        for (i, j), nu in (poisson or {}).items():
+            if i == d:
+                cols.append(-nu * e * BOX[j] * 1e6)
+                names.append(f"u{j}")
+                lateral.append({"column": f"u{j}", "unit": "um", "direction": j})
+        body = "\n".join(" ".join(f"{v:.9g}" for v in row) for row in np.column_stack(cols))
+        (folder / f"h_{d}.txt").write_text(
+            f"# invented history, load case {d}\n" + " ".join(names) + "\n" + body + "\n")
+        lc = {"direction": d, "file": f"h_{d}.txt", "force": {"column": "F", "unit": "mN"},
+              "displacement": {"column": "u", "unit": "um"}}
+        if lateral:
+            lc["lateral"] = lateral
+        cases.append(lc)
+    return cases
+
+
+def history_case(folder, base, arch, moduli, poisson=None, **kw):
+    data = {**base, "rve": {"architecture": arch,
+                            "size": {k: f"{v * 1e6:g} um" for k, v in BOX.items()},
+                            "load_case": write_histories(folder, moduli, poisson, **kw)}}
+    return case_from_dict(data, path=folder / "case.toml")
+
+
+UD_BASE = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55, "arrangement": "hexagonal"}}
+
+
+def ud_mori_tanaka():
+    return estimate(case_from_dict(UD_BASE).composite, strengths=False)["mori_tanaka"]
+
+
+def ud_moduli(mt, **scale):
+    names = {"x": "E1", "y": "E2", "z": "E3", "xy": "G12", "xz": "G13", "yz": "G23"}
+    return {d: float(mt.get(n)) * scale.get(d, 1.0) for d, n in names.items()}
+
+
+def test_ud_six_histories_with_shear_cases_are_consistent_end_to_end(tmp_path):
+    mt = ud_mori_tanaka()
+    nu = {("x", "y"): float(mt.nu12), ("x", "z"): float(mt.nu13)}
+    r = check_case(history_case(tmp_path, UD_BASE, "unidirectional", ud_moduli(mt), nu))
+    elastic = {"E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13"}
+    assert elastic <= set(r.properties) and set(r.curves) == {"x", "y", "z", "xy", "yz", "xz"}
+    bad = {n: p.reasons for n, p in r.properties.items() if p.verdict != "consistent"}
+    assert bad == {}
+    for d, name in (("xy", "G12"), ("xz", "G13"), ("yz", "G23")):
+        # invented data made from Mori-Tanaka: the curve gives it back (noise 0.1 %)
+        assert r.properties[name].value == pytest.approx(float(mt.get(name)), rel=5e-3)
+        assert r.curves[d].metrics.yield_strength == pytest.approx(40e6, rel=1e-2)
+    assert r.exit_code == 0
+
+
+def test_ud_histories_with_force_declared_in_newtons_violate_with_a_unit_slip(tmp_path):
+    mt = ud_mori_tanaka()
+    case = history_case(tmp_path, UD_BASE, "unidirectional", ud_moduli(mt))
+    lc = case.rve.load_cases[0]  # x: the file holds mN, declare N: every stress x 1000
+    data = {**UD_BASE, "rve": {"architecture": "unidirectional",
+                               "size": {k: f"{v * 1e6:g} um" for k, v in BOX.items()},
+                               "load_case": [{"direction": "x", "file": lc.file.name,
+                                              "force": {"column": "F", "unit": "N"},
+                                              "displacement": {"column": "u", "unit": "um"}}]}}
+    r = check_case(case_from_dict(data, path=tmp_path / "case.toml"))
+    e1 = r.properties["E1"]
+    assert e1.verdict == "violates_bounds" and r.exit_code == 1
+    assert e1.reasons[1].startswith("Likely cause 1: A unit slip") and "10^3" in e1.reasons[1]
+
+
+def test_ud_history_40_percent_below_the_estimates_is_suspect(tmp_path):
+    mt = ud_mori_tanaka()
+    r = check_case(history_case(tmp_path, UD_BASE, "unidirectional",
+                                {"x": 0.6 * float(mt.E1)}))
+    e1 = r.properties["E1"]
+    assert e1.verdict == "suspect" and e1.lower_bound < e1.value < e1.upper_bound
+    assert any("below the expected band" in x for x in e1.reasons)
+
+
+PARTICLES = {"fibre": {"use": "glass-beads"}, "matrix": {"use": "epoxy"},
+             "composite": {"volume_fraction": 0.3, "inclusion": "sphere"}}
+
+
+def particle_mori_tanaka():
+    return estimate(case_from_dict(PARTICLES).composite, strengths=False)["mori_tanaka"]
+
+
+def test_particulate_histories_at_mori_tanaka_are_consistent(tmp_path):
+    mt = particle_mori_tanaka()
+    E, G, nu = float(mt.E1), float(mt.G12), float(mt.nu12)
+    moduli = {"x": E, "y": E, "z": E, "xy": G}
+    poisson = {("x", "y"): nu, ("y", "z"): nu, ("z", "x"): nu}
+    r = check_case(history_case(tmp_path, PARTICLES, "particulate", moduli, poisson))
+    bad = {n: p.reasons for n, p in r.properties.items() if p.verdict != "consistent"}
+    assert bad == {}
+    assert {"E1", "E2", "E3", "G12", "nu12", "nu23", "nu31"} <= set(r.properties)
+    assert r.properties["E1"].hs_band is not None  # random spheres: HS band applies
+
+
+def test_particulate_axes_that_differ_are_suspect(tmp_path):
+    # each within the flat 10 % band of Mori-Tanaka, but 16 % apart: spheres make x and y alike
+    E = float(particle_mori_tanaka().E1)
+    r = check_case(history_case(tmp_path, PARTICLES, "particulate",
+                                {"x": 1.08 * E, "y": 0.92 * E}))
+    for name in ("E1", "E2"):
+        assert r.properties[name].verdict == "suspect"
+        assert any("three axes of the cell alike" in x for x in r.properties[name].reasons)
+
+
+def test_particulate_15_percent_low_is_suspect_above_reuss(tmp_path):
+    E = float(particle_mori_tanaka().E1)
+    e1 = check_case(history_case(tmp_path, PARTICLES, "particulate",
+                                 {"x": 0.85 * E})).properties["E1"]
+    assert e1.verdict == "suspect" and e1.value > e1.lower_bound
+
+
+def test_averaged_load_cases_grade_all_nine_constants_and_report_the_stiffness():
+    C = mt_stiffness_gpa() * 1e9
+    eps = 1e-3 * np.eye(6)
+    cases = [{"stress": (C @ e / 1e6).tolist(), "strain": e.tolist(), "stress_unit": "MPa"}
+             for e in eps]
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional", "load_case": cases}}
+    r = check_case(case_from_dict(data))
+    nine = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")
+    assert set(nine) <= set(r.properties)
+    assert all(r.properties[n].verdict == "consistent" for n in nine)
+    assert r.stiffness_source == "load_cases" and r.stiffness.n_cases == 6
+    assert r.stiffness.symmetry_error < 1e-12 and r.stiffness.positive_definite
+    d = r.as_dict()["stiffness"]
+    assert d["source"] == "load_cases" and d["positive_definite"] is True
+    assert np.allclose(d["stiffness"], C, rtol=1e-9)  # exact identity: six unit strains
+
+
+def test_full_matrix_grades_all_nine_constants_under_stack_names():
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "crossply", "layup": "[0/90]",
+                    "stiffness": {"matrix": crossply_stiffness_gpa().tolist(), "unit": "GPa"}}}
+    r = check_case(case_from_dict(data))
+    nine = ("Ex", "Ey", "Ez", "Gxy", "Gxz", "Gyz", "nuxy", "nuxz", "nuyz")
+    assert set(nine) <= set(r.properties) and r.stiffness_source == "matrix"
+    assert all(r.properties[n].verdict == "consistent" for n in nine)
+
+
+def test_asymmetric_load_cases_are_noted_and_reported():
+    C = mt_stiffness_gpa() * 1e9
+    C[0, 1] *= 2.0  # C12 != C21: load cases that disagree
+    eps = 1e-3 * np.eye(6)
+    cases = [{"stress": (C @ e).tolist(), "strain": e.tolist()} for e in eps]
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional", "load_case": cases}}
+    r = check_case(case_from_dict(data))
+    assert r.stiffness.symmetry_error > 0.05
+    assert any("not symmetric" in n for n in r.notes)
+
+
+def test_shear_yield_below_the_matrix_shear_yield_is_suspect(tmp_path):
+    # polyamide-6 yields at 80 MPa in the registry: in shear 80 / sqrt(3) = 46.2 MPa (von Mises,
+    # from memory); a uniform stress at that level is admissible (Drucker 1966, from memory)
+    base = {"fibre": {"use": "e-glass"}, "matrix": {"use": "polyamide-6"},
+            "composite": {"volume_fraction": 0.5, "arrangement": "hexagonal"}}
+    mt = estimate(case_from_dict(base).composite, strengths=False)["mori_tanaka"]
+    low = check_case(history_case(tmp_path, base, "unidirectional", {"xy": float(mt.G12)},
+                                  yield_stress=40e6))
+    p = low.properties["yield_strength_xy"]
+    assert p.lower_bound == pytest.approx(80e6 / np.sqrt(3))
+    assert p.verdict == "suspect" and "shear yield stress" in p.reasons[0]
+    high = check_case(history_case(tmp_path, base, "unidirectional", {"xy": float(mt.G12)},
+                                   yield_stress=60e6))
+    assert high.properties["yield_strength_xy"].verdict == "consistent"
+
+
+def test_wrong_cell_size_is_named_for_the_poisson_ratios_it_scales():
+    r = check_case(DEMO / "crossply_bad.toml")  # size.z declared 90 um, the cell is 120 um
+    assert any("The lateral strain of nuxz is taken over that edge" in x
+               for x in r.properties["nuxz"].reasons)
+    assert any("The axial strain of nuzx is taken over that edge" in x
+               for x in r.properties["nuzx"].reasons)
+
+
+def test_strain_range_argument_replaces_the_search():
+    r = check_case(DEMO / "crossply.toml", strain_range=(0.0005, 0.003))
+    m = r.curves["x"].metrics
+    assert not m.fit_automatic and 0.0005 <= m.modulus_fit_range[0] < m.modulus_fit_range[1]
+    assert m.modulus_fit_range[1] <= 0.003
+
+
+@pytest.mark.parametrize(("value", "message"), [
+    ((0.003, 0.001), "must satisfy 0 <= low < high"),
+    ((0.001,), "must be two strains"),
+    (("a", "b"), "must be two strains"),
+    ((-0.001, 0.002), "must satisfy 0 <= low < high"),
+])
+def test_bad_strain_range_raises(value, message):
+    with pytest.raises(InputError, match=message):
+        check_case(DEMO / "crossply.toml", strain_range=value)
+
+
+def test_expected_properties_without_composite_raises():
+    case = case_from_dict({"rve": {"architecture": "unidirectional",
+                                   "stiffness": {"matrix": np.eye(6).tolist()}}})
+    with pytest.raises(CaseFileError, match=r"needs \[fibre\], \[matrix\], \[composite\]"):
+        expected_properties(case, ["E1"])

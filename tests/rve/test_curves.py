@@ -61,6 +61,47 @@ def test_ramberg_osgood_with_one_percent_noise(seed):
     assert any("noisy curve" in note for note in m.notes)
 
 
+@pytest.mark.parametrize("seed", range(3))
+def test_ramberg_osgood_with_noise_on_the_strain(seed):
+    # noise on the displacement column: 0.1 % of the largest strain (2 strain steps)
+    eps, sig = ramberg_osgood(10.0)
+    noisy = eps + np.random.default_rng(seed).normal(0.0, 1e-3 * eps.max(), eps.size)
+    m = curve_metrics(noisy, sig)
+    assert m.yield_strength == pytest.approx(S0, rel=3e-3)  # Ramberg & Osgood (1943)
+    assert m.modulus == pytest.approx(E, rel=1e-2)
+    assert any("noisy strain" in note for note in m.notes)
+    assert not any("unloading" in note for note in m.notes)  # noise is not an unloading
+
+
+def test_unevenly_stepped_clean_strain_is_not_taken_for_noise():
+    # equal stress steps make the strain steps grow 100-fold: smooth, not noisy
+    m = curve_metrics(*ramberg_osgood(10.0, points=301))
+    assert not any("noisy" in note for note in m.notes)
+    assert m.yield_strength == pytest.approx(S0, rel=2e-3)  # Ramberg & Osgood (1943)
+
+
+def test_unloading_is_still_found_on_a_noisy_strain():
+    eps, sig = ramberg_osgood(10.0, points=2001)
+    k = 1200
+    down = np.linspace(sig[k], 0.3 * sig[k], 200)[1:]
+    e_down = eps[k] - (sig[k] - down) / E
+    x = np.concatenate((eps[: k + 1], e_down, e_down[::-1][1:-1], eps[k + 1:]))
+    y = np.concatenate((sig[: k + 1], down, down[::-1][1:-1], sig[k + 1:]))
+    x = x + np.random.default_rng(1).normal(0.0, 1e-3 * eps.max(), x.size)
+    m = curve_metrics(x, y)
+    assert any("unloading" in note for note in m.notes)
+    assert m.yield_strength == pytest.approx(S0, rel=3e-3)  # Ramberg & Osgood (1943)
+    assert m.modulus == pytest.approx(E, rel=1e-2)
+
+
+def test_user_fit_range_on_a_noisy_strain():
+    eps, sig = ramberg_osgood(10.0)
+    noisy = eps + np.random.default_rng(2).normal(0.0, 1e-3 * eps.max(), eps.size)
+    m = curve_metrics(noisy, sig, fit_range=(0.0005, 0.0025))
+    assert not m.fit_automatic and m.fit_points > 50
+    assert m.modulus == pytest.approx(E, rel=1e-2)  # RO curve: 0.2 % plastic strain at S0
+
+
 # --- bilinear: every answer analytic ------------------------------------------------------
 
 

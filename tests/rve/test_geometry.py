@@ -532,6 +532,13 @@ def test_cli_writes_json_for_a_json_name_and_a_plot(tmp_path: Path) -> None:
         (("--fraction", "0.8", "--diameter", "7 um", "--packing", "square"),
          "square packing limit 0.7854"),
         (("--fraction", "0.5", "--diameter", "7 um", "--gap", "-0.1"), "min_gap = .* must be >= 0"),
+        # output problems are found before the packing runs
+        (("--fraction", "0.5", "--diameter", "7 um", "--out", "/nonexistent-folder/c.csv"),
+         "--out = '/nonexistent-folder/c.csv': folder '/nonexistent-folder' does not exist"),
+        (("--fraction", "0.5", "--diameter", "7 um", "--out", "c.csv", "--unit", "kg"),
+         r"--unit expects a length"),
+        (("--fraction", "0.5", "--diameter", "7 um", "--plot", "cell.doc"),
+         r"--plot = 'cell.doc': format 'doc' is not an image format"),
     ],
 )
 def test_cli_bad_input_exits_2_with_the_rule(args: tuple[str, ...], message: str) -> None:
