@@ -31,7 +31,7 @@ from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
-from micromech.errors import InvalidMaterialError, MicromechError, RegistryError
+from micromech.errors import DataFileError, InvalidMaterialError, MicromechError, RegistryError
 from micromech.materials.models import (
     Isotropic,
     Material,
@@ -39,6 +39,7 @@ from micromech.materials.models import (
     TransverselyIsotropic,
     material_from_dict,
 )
+from micromech.resources import data_directory
 
 __all__ = [
     "ENV_VAR",
@@ -56,16 +57,6 @@ ENV_VAR = "MICROMECH_MATERIALS"
 _KEY_RE = re.compile(r"^[a-z0-9][a-z0-9._+-]*$")
 
 
-def _candidates() -> list[Path]:
-    here = Path(__file__).resolve()
-    pkg = here.parent.parent  # .../micromech
-    return [
-        pkg.parent / "data" / "materials",  # repository root (editable install)
-        pkg / "data" / "materials",  # package data, should it be moved inside the package
-        Path.cwd() / "data" / "materials",
-    ]
-
-
 def bundled_directory() -> Path:
     """Locate the folder of bundled registry files.
 
@@ -73,20 +64,17 @@ def bundled_directory() -> Path:
     -------
     Path
         The first existing folder among ``<repo>/data/materials`` (next to the package),
-        ``micromech/data/materials`` and ``./data/materials``.
+        ``<prefix>/share/micromech/materials`` and ``./data/materials``.
 
     Raises
     ------
     RegistryError
         If none exists.
     """
-    tried = _candidates()
-    for p in tried:
-        if p.is_dir() and any(p.glob("*.toml")):
-            return p
-    raise RegistryError(
-        "bundled materials folder not found; looked in " + ", ".join(str(p) for p in tried)
-    )
+    try:
+        return data_directory("materials")
+    except DataFileError as exc:
+        raise RegistryError(str(exc)) from None
 
 
 def _expand(path: Path | str) -> list[Path]:

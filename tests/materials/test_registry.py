@@ -113,8 +113,10 @@ def test_bundled_directory_is_found_next_to_the_package():
 
 
 def test_bundled_directory_missing_raises(monkeypatch, tmp_path):
-    monkeypatch.setattr(registry_module, "_candidates", lambda: [tmp_path / "nowhere"])
-    with pytest.raises(RegistryError, match=r"bundled materials folder not found; looked in"):
+    import micromech.resources as resources
+
+    monkeypatch.setattr(resources, "data_candidates", lambda name: [tmp_path / "nowhere"])
+    with pytest.raises(RegistryError, match=r"bundled materials data not found; looked in"):
         registry_module.bundled_directory()
 
 
