@@ -459,6 +459,9 @@ def rve_command(
 
 #: Monte Carlo runs with more samples than this show a progress bar on standard error.
 _SIZE_PROGRESS_ABOVE = 1_000_000
+#: Largest Monte Carlo run (micromech.design.uncertainty.MAX_SAMPLES, not imported here so that
+#: ``micromech --help`` stays fast).
+_SIZE_MAX_SAMPLES = 10_000_000
 
 
 def _size_percentiles(text: str) -> tuple[float, ...]:
@@ -487,7 +490,8 @@ def _size_percentiles(text: str) -> tuple[float, ...]:
 @click.option("--plot", "plot_file", type=click.Path(dir_okay=False),
               help="Each target's property against fibre fraction, with the target line, to a "
                    "PNG file (histograms go to FILE-scatter.png with --uncertainty).")
-@click.option("--uncertainty", "samples", type=click.IntRange(min=2), default=None,
+@click.option("--uncertainty", "samples", type=click.IntRange(min=2, max=_SIZE_MAX_SAMPLES),
+              default=None,
               metavar="N", help="Monte Carlo scatter of the case's properties with N samples.")
 @click.option("--cov", type=click.FloatRange(min=0.0), default=0.05, show_default=True,
               help="Coefficient of variation of the constituent moduli.")

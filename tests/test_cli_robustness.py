@@ -12,6 +12,7 @@ is always a result (status 0 or 1) or the project's error (status 2), never a tr
 
 from __future__ import annotations
 
+import copy
 import json
 import math
 import re
@@ -89,7 +90,7 @@ _CASE_ERRORS = {
     "binary junk": r"not UTF-8 text",
     "malformed TOML": r"malformed TOML",
     "unknown key": r"unknown key 'colour'",
-    "wrong units": r"E expects a pressure .* got '72 kg'",
+    "wrong units": r"\bE\b.*pressure.*'72 kg'",
     "negative modulus": r"E = -72000000000\.0 must be positive",
     "fraction 1.5": r"volume_fraction = 1\.5 is outside \[0, 1\]",
 }
@@ -98,10 +99,10 @@ _READS_HISTORIES = {
     "missing column": r"displacement column 'dsp' does not exist",
 }
 _EMPTY = {
-    "estimate": r"estimate needs \[fibre\], \[matrix\] and \[composite\]",
+    "estimate": r"needs \[fibre\], \[matrix\] and \[composite\]",
     "laminate": r"no \[laminate\] table",
-    "size": r"sizing needs \[fibre\], \[matrix\] and \[composite\]",
-    "rve": r"no fibre volume fraction",
+    "size": r"needs \[fibre\], \[matrix\] and \[composite\]",
+    "rve": r"fraction",
     "check": r"no \[rve\] results to check",
 }
 _MISSING = {"estimate": "case file not found", "laminate": "case file not found",
@@ -191,7 +192,7 @@ def test_bad_case_inputs(tmp_path, command, bad):
 # --- materials: registry files and keys -------------------------------------------------------
 
 BAD_REGISTRIES: dict[str, tuple[Any, str | None]] = {
-    "missing file": (None, r"Path '.*' does not exist"),
+    "missing file": (None, r"(?i)path '.*' does not exist"),
     "folder instead of file": ("DIR", None),  # a folder of registry files is allowed
     "empty file": (b"", None),  # an empty registry file adds nothing
     "binary junk": (bytes(range(256)) * 4, r"not UTF-8 text"),
@@ -234,19 +235,19 @@ def test_materials_good_registry_file_and_unknown_key(tmp_path):
 PANEL = DEMO / "panel.toml"
 CROSSPLY = DEMO / "crossply.toml"
 BAD_OPTIONS = [
-    (["estimate", PANEL, "--misalignment", "-5"], r"misalignment_deg = -5\.0: must be positive"),
-    (["laminate", PANEL, "--f12-star", "5"], r"f12_star = 5\.0: must lie in \(-1, 1\)"),
-    (["laminate", PANEL, "--envelope", "Nx,Foo"], r"envelope axis 'Foo': unknown"),
-    (["laminate", PANEL, "--envelope", "Nx,Ny", "--points", "2"], r"n_points = 2"),
-    (["size", PANEL, "--target", "E2=9kg"], r"target E2 expects a pressure"),
-    (["size", PANEL, "--target", "Foo=9GPa"], r"unknown property 'Foo'"),
-    (["size", PANEL, "--target", "E2"], r"expected NAME=VALUE"),
-    (["size", PANEL], r"give at least one --target"),
-    (["rve", "--fraction", "1.5", "--diameter", "7 um"], r"volume_fraction = 1\.5"),
-    (["rve", "--fraction", "0.5", "--diameter", "-7 um"], r"diameter = -7e-06 must be > 0"),
-    (["rve", "--fraction", "0.5", "--diameter", "7 kg"], r"--diameter expects a length"),
-    (["rve", "--fraction", "abc", "--diameter", "7 um"], r"--fraction expects a plain number"),
-    (["rve", "--fraction", "0.5"], r"no fibre diameter"),
+    (["estimate", PANEL, "--misalignment", "-5"], r"misalignment.*-5"),
+    (["laminate", PANEL, "--f12-star", "5"], r"f12.*5"),
+    (["laminate", PANEL, "--envelope", "Nx,Foo"], r"'Foo'"),
+    (["laminate", PANEL, "--envelope", "Nx,Ny", "--points", "2"], r"points.* 2\b"),
+    (["size", PANEL, "--target", "E2=9kg"], r"E2.*9 ?kg"),
+    (["size", PANEL, "--target", "Foo=9GPa"], r"'Foo'"),
+    (["size", PANEL, "--target", "E2"], r"'E2'.*NAME=VALUE"),
+    (["size", PANEL], r"--target"),
+    (["rve", "--fraction", "1.5", "--diameter", "7 um"], r"fraction.*1\.5"),
+    (["rve", "--fraction", "0.5", "--diameter", "-7 um"], r"diameter.*-7"),
+    (["rve", "--fraction", "0.5", "--diameter", "7 kg"], r"--diameter.*7 kg"),
+    (["rve", "--fraction", "abc", "--diameter", "7 um"], r"--fraction.*'abc'"),
+    (["rve", "--fraction", "0.5"], r"--diameter"),
     (["check", CROSSPLY, "--offset", "-1"], r"offset = -1\.0 must be a strain between 0 and 1"),
     (["check", CROSSPLY, "--tolerance", "E2=abc"], r"tolerance E2 = 'abc' is not a number"),
     (["check", CROSSPLY, "--tolerance", "E22=0.1"], r"unknown property 'E22'"),
@@ -298,7 +299,9 @@ def _toml_value(v: Any) -> str:
     if isinstance(v, bool):
         return "true" if v else "false"
     if isinstance(v, float):
-        return "nan" if math.isnan(v) else ("inf" if v > 0 else "-inf") if math.isinf(v) else repr(v)
+        if math.isnan(v):
+            return "nan"
+        return ("inf" if v > 0 else "-inf") if math.isinf(v) else repr(v)
     if isinstance(v, int):
         return str(v)
     if isinstance(v, str):
@@ -337,7 +340,7 @@ def test_mutated_case_files_never_crash(tmp_path, picks, command):
         target = data
         for k in parent:
             target = target[k]
-        target[key] = value
+        target[key] = copy.deepcopy(value)  # never the shared object itself
     text = "\n".join(f"{json.dumps(k)} = {_toml_value(v)}" for k, v in data.items()) + "\n"
     path = write_case(tmp_path, text)
     assert_no_crash(invoke([command, path, *CASE_COMMANDS[command]]))
@@ -352,9 +355,22 @@ _cells = st.one_of(
 
 @_SETTINGS
 @given(rows=st.lists(st.tuples(_cells, _cells), min_size=0, max_size=25),
-       header=st.sampled_from(["force,disp\n", "disp,force\n", "", "# invented\nforce disp\n"]),
-       sep=st.sampled_from([",", "\t", " ", ";"]))
-def test_random_histories_never_crash_check(tmp_path, rows, header, sep):
+       header=st.sampled_from(["force,disp\n", "disp,force\n", "", "# invented\nforce disp\n",
+                               "force,disp\nN,um\n", "force,disp\nkN,mm\n"]),
+       sep=st.sampled_from([",", "\t", " ", ";"]), as_json=st.booleans())
+def test_random_histories_never_crash_check(tmp_path, rows, header, sep, as_json):
     csv = header + "\n".join(sep.join(r) for r in rows) + "\n"
     path = write_case(tmp_path, GOOD_CASE, csv)
-    assert_no_crash(invoke(["check", path]))
+    r = invoke(["check", path, *(["--json"] if as_json else [])])
+    assert_no_crash(r)
+    if as_json and r.exit_code in (0, 1):
+        assert json.loads(r.output)["worst_verdict"] in ("consistent", "suspect",
+                                                         "violates_bounds")
+
+
+@_SETTINGS
+@given(rows=st.lists(st.tuples(st.floats(-1e6, 1e6), st.floats(-1e3, 1e3)), min_size=3,
+                     max_size=60))
+def test_random_numeric_histories_give_a_result_or_an_error(tmp_path, rows):
+    csv = "force,disp\n" + "\n".join(f"{f!r},{u!r}" for f, u in rows) + "\n"
+    assert_no_crash(invoke(["check", write_case(tmp_path, GOOD_CASE, csv), "--json"]))

@@ -55,10 +55,13 @@ __all__ = [
     "MonteCarloResult",
     "propagate",
     "DEFAULT_PERCENTILES",
+    "MAX_SAMPLES",
 ]
 
 Array = NDArray[np.float64]
 Distribution = Literal["normal", "lognormal"]
+#: Largest number of sample rows of one run (memory: 4 bytes per sample and output kept).
+MAX_SAMPLES: int = 10_000_000
 #: Percentiles reported by default.
 DEFAULT_PERCENTILES: tuple[float, ...] = (5.0, 50.0, 95.0)
 
@@ -368,8 +371,9 @@ def propagate(
     Raises
     ------
     InputError
-        For n < 2, a bad percentile, bins or chunk size, a function that returns arrays of the
-        wrong shape or no outputs, or rows that keep failing the physical range.
+        For n < 2 or n > :data:`MAX_SAMPLES`, a bad percentile, bins or chunk size, a function
+        that returns arrays of the wrong shape or no outputs, or rows that keep failing the
+        physical range.
 
     References
     ----------
@@ -384,6 +388,12 @@ def propagate(
     n = int(n)
     if n < 2:
         raise InputError(f"samples: n = {n}; need at least 2")
+    if n > MAX_SAMPLES:
+        raise InputError(
+            f"samples: n = {n}; at most {MAX_SAMPLES:.0e} (every sample of every output is kept "
+            "for the percentiles, 4 bytes each; the sampling error at 10^7 samples is already "
+            "far below the scatter of any constituent data)"
+        )
     pct = tuple(float(p) for p in percentiles)
     if any(not 0.0 <= p <= 100.0 for p in pct):
         raise InputError(f"percentiles: {list(pct)} must each lie in [0, 100]")

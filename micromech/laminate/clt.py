@@ -277,6 +277,23 @@ def _as_material_list(
     return out
 
 
+def _invert_abd(ABD: Array, t: Array) -> Array:
+    """Invert the 6x6 laminate stiffness, refusing one that is singular in floating point."""
+    inv: Array | None
+    try:
+        inv = np.asarray(np.linalg.inv(ABD), dtype=np.float64)
+    except np.linalg.LinAlgError:
+        inv = None
+    if inv is None or not (np.all(np.isfinite(ABD)) and np.all(np.isfinite(inv))):
+        raise InputError(
+            f"laminate: the ABD matrix cannot be inverted for ply thicknesses from "
+            f"{t.min():g} to {t.max():g} m (total {t.sum():g} m): the bending stiffness "
+            "D ~ h^3 under- or overflows; give thicknesses in metres of a realistic size "
+            "(e.g. '0.125 mm')"
+        )
+    return inv
+
+
 def _as_thickness_list(thickness: Any, n: int, what: str) -> list[Any]:
     if isinstance(thickness, (str, int, float, np.floating)) or np.ndim(thickness) == 0:
         return [thickness] * n
@@ -332,11 +349,13 @@ class Laminate:
         Q = np.stack([p.material.reduced_stiffness() for p in plies])
         Qbar = transformed_reduced_stiffness(Q, angles)
         alpha = transformed_expansion(np.stack([p.material.expansion() for p in plies]), angles)
-        A, B, D = abd_matrices(Qbar, z)
-        ABD = np.block([[A, B], [B, D]])
+        with np.errstate(over="ignore", under="ignore", invalid="ignore"):
+            A, B, D = abd_matrices(Qbar, z)  # extreme thicknesses are refused just below
+            ABD = np.block([[A, B], [B, D]])
+            abd_inv = _invert_abd(ABD, t)
         arrays = {
             "t": t, "z": z, "angles": angles, "Q": Q, "Qbar": Qbar, "alpha": alpha,
-            "A": A, "B": B, "D": D, "ABD": ABD, "abd_inv": np.linalg.inv(ABD),
+            "A": A, "B": B, "D": D, "ABD": ABD, "abd_inv": abd_inv,
             "zpts": np.stack([z[:-1], 0.5 * (z[:-1] + z[1:]), z[1:]], -1),
             "T": stress_transformation(angles), "Te": strain_transformation(angles),
         }

@@ -116,7 +116,13 @@ def _need(strengths: Any, names: tuple[str, ...], criterion: str) -> list[Array]
     return [np.asarray(getattr(strengths, n), dtype=np.float64) for n in names]
 
 
-def _stresses(stress: ArrayLike, thermal: ArrayLike | None) -> tuple[Array, Array]:
+def _stresses(stress: ArrayLike, thermal: ArrayLike | None) -> tuple[Array, Array, Array]:
+    """Return the scaled mechanical stress (largest component 1), the thermal stress, the scale.
+
+    The ray problem is solved for the scaled stress and its ratio divided by the scale at the
+    end (ratios scale as 1 / load), so that very large or very small loads neither overflow
+    nor underflow in the quadratic forms.
+    """
     sM = np.asarray(stress, dtype=np.float64)
     if sM.shape[-1:] != (3,):
         raise InputError(f"stress: expected shape (..., 3) = (s11, s22, s12), got {sM.shape}")
@@ -124,7 +130,9 @@ def _stresses(stress: ArrayLike, thermal: ArrayLike | None) -> tuple[Array, Arra
     if sT.shape[-1:] != (3,):
         raise InputError(f"thermal: expected shape (..., 3) = (s11, s22, s12), got {sT.shape}")
     sM, sT = np.broadcast_arrays(sM, sT)
-    return sM, sT
+    k = np.max(np.abs(sM), axis=-1)
+    k = np.where((k > 0.0) & np.isfinite(k), k, 1.0)
+    return sM / k[..., None], sT, k
 
 
 def _linear_ratio(vT: Array, vM: Array, upper: Array, lower: Array) -> Array:
@@ -232,7 +240,7 @@ def max_stress(
     Jones (1999), Sec. 2.9.2; Kaw (2006), Sec. 2.9.1.
     """
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "max_stress")
-    sM, sT = _stresses(stress, thermal)
+    sM, sT, scale = _stresses(stress, thermal)
     lams = np.stack([
         _linear_ratio(sT[..., 0], sM[..., 0], Xt, Xc),
         _linear_ratio(sT[..., 1], sM[..., 1], Yt, Yc),
@@ -243,7 +251,7 @@ def max_stress(
     s = _failure_point(sT, sM, R)
     mode = np.choose(k, [np.where(s[..., 0] >= 0, _FT, _FC), np.where(s[..., 1] >= 0, _MT, _MC),
                          np.full(np.shape(k), _SH)])
-    return _result("max_stress", R, mode)
+    return _result("max_stress", R / scale, mode)
 
 
 def max_strain(
@@ -276,7 +284,7 @@ def max_strain(
     Jones (1999), Sec. 2.9.3; Kaw (2006), Sec. 2.9.2.
     """
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "max_strain")
-    sM, sT = _stresses(stress, thermal)
+    sM, sT, scale = _stresses(stress, thermal)
     Sm = np.asarray(compliance, dtype=np.float64)
     if Sm.shape[-2:] != (3, 3):
         raise InputError(f"compliance: expected shape (..., 3, 3), got {Sm.shape}")
@@ -293,7 +301,7 @@ def max_strain(
     e = _failure_point(eT, eM, R)
     mode = np.choose(k, [np.where(e[..., 0] >= 0, _FT, _FC), np.where(e[..., 1] >= 0, _MT, _MC),
                          np.full(np.shape(k), _SH)])
-    return _result("max_strain", R, mode)
+    return _result("max_strain", R / scale, mode)
 
 
 def _diag3(a: Any, b: Any, c: Any) -> Array:
@@ -330,7 +338,7 @@ def tsai_hill(
     Azzi and Tsai (1965); Jones (1999), Sec. 2.9; Kaw (2006), Sec. 2.9.3.
     """
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "tsai_hill")
-    sM, sT = _stresses(stress, thermal)
+    sM, sT, scale = _stresses(stress, thermal)
     zero_f = np.zeros(3)
     R = np.full(sM.shape[:-1], np.inf)
     for pos1, X in ((True, Xt), (False, Xc)):
@@ -342,7 +350,7 @@ def tsai_hill(
             a, b, c = _ray(H, zero_f, sT, sM)
             R = np.minimum(R, _first_reach(a, b, c, np.maximum(lo1, lo2), np.minimum(hi1, hi2)))
     mode = _dominant_mode(_failure_point(sT, sM, R), Xt, Xc, Yt, Yc, S)
-    return _result("tsai_hill", R, mode)
+    return _result("tsai_hill", R / scale, mode)
 
 
 def tsai_wu(
@@ -388,7 +396,7 @@ def tsai_wu(
             f"f12_star = {f12_star}: must lie in (-1, 1) for a closed Tsai-Wu failure surface"
         )
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "tsai_wu")
-    sM, sT = _stresses(stress, thermal)
+    sM, sT, scale = _stresses(stress, thermal)
     F11, F22, F66 = 1.0 / (Xt * Xc), 1.0 / (Yt * Yc), 1.0 / S**2
     H = _diag3(F11, F22, F66)
     H[..., 0, 1] = H[..., 1, 0] = float(f12_star) * np.sqrt(F11 * F22)
@@ -398,7 +406,7 @@ def tsai_wu(
     zero = np.zeros(np.shape(a))
     R = _first_reach(a, b, c, zero, zero + np.inf)
     mode = _dominant_mode(_failure_point(sT, sM, R), Xt, Xc, Yt, Yc, S)
-    return _result("tsai_wu", R, mode)
+    return _result("tsai_wu", R / scale, mode)
 
 
 def hashin(
@@ -435,7 +443,7 @@ def hashin(
     Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "hashin")
     S23 = getattr(strengths, "S23", None)
     ST = Yc / 2.0 if S23 is None else np.asarray(S23, dtype=np.float64)
-    sM, sT = _stresses(stress, thermal)
+    sM, sT, scale = _stresses(stress, thermal)
     zero3 = np.zeros(3)
     modes = []
     # fibre tension / compression: region by the sign of s11
@@ -459,7 +467,7 @@ def hashin(
     k = np.argmin(lams, -1)
     R = np.min(lams, -1)
     mode = np.asarray([_MT, _MC, _FT, _FC])[k]
-    return _result("hashin", R, mode)
+    return _result("hashin", R / scale, mode)
 
 
 def evaluate_criterion(

@@ -227,7 +227,12 @@ class FailureSequence:
         }
 
 
-def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float]:
+def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float, float]:
+    """Return the load direction scaled to a largest resultant of 1 (SI), the scale and dT.
+
+    Load factors are found for the scaled direction and divided by the scale, so that very
+    large or very small resultants neither overflow nor underflow.
+    """
     vec, dT = load_vector(loads)
     if vec.shape != (6,):
         raise InputError(f"loads: one load direction (shape (6,)) expected, got {vec.shape}")
@@ -236,7 +241,8 @@ def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float]:
             "loads: at least one of Nx, Ny, Nxy, Mx, My, Mxy must be non-zero to find a failure "
             "load (delta_T alone is held fixed, not scaled)"
         )
-    return vec, dT
+    scale = float(np.max(np.abs(vec)))
+    return vec / scale, scale, dT
 
 
 def _ply_minimum(res: CriterionResult) -> tuple[Array, NDArray[np.intp], NDArray[np.int64]]:
@@ -249,14 +255,15 @@ def _ply_minimum(res: CriterionResult) -> tuple[Array, NDArray[np.intp], NDArray
 
 
 def _event(
-    laminate: Laminate, vec: Array, lam: float, idx: NDArray[Any], point: NDArray[Any],
-    mode: NDArray[Any],
+    laminate: Laminate, unit: Array, lam: float, scale: float, idx: NDArray[Any],
+    point: NDArray[Any], mode: NDArray[Any],
 ) -> FailureEvent:
+    """Failure event at factor ``lam`` of the scaled direction ``unit`` (loads = unit * scale)."""
     from micromech.laminate.clt import POINTS
 
     return FailureEvent(
-        load_factor=float(lam),
-        resultants=tuple(float(v) for v in vec * lam),
+        load_factor=float(lam) / scale,
+        resultants=tuple(float(v) for v in unit * lam),
         plies=tuple(int(i) for i in idx),
         angles=tuple(float(laminate.angles[i]) for i in idx),
         modes=tuple(MODES[int(mode[i])] for i in idx),
@@ -299,14 +306,14 @@ def first_ply_failure(
     ----------
     Kaw (2006), Sec. 5.3.
     """
-    vec, dT = _direction(loads)
+    vec, scale, dT = _direction(loads)
     if delta_T is not None:
         dT = float(delta_T)
     res = ply_strength_ratios(laminate, vec, dT, criterion, f12_star=f12_star)
     R, point, mode = _ply_minimum(res)
     lam = float(np.min(R))
     idx = np.flatnonzero(R <= lam * (1.0 + rtol)) if np.isfinite(lam) else np.array([], int)
-    return _event(laminate, vec, lam, idx, point, mode)
+    return _event(laminate, vec, lam, scale, idx, point, mode)
 
 
 def last_ply_failure(
@@ -354,7 +361,7 @@ def last_ply_failure(
     """
     if not 0.0 < residual < 1.0:
         raise InputError(f"residual = {residual}: must lie in (0, 1)")
-    vec, dT = _direction(loads)
+    vec, scale, dT = _direction(loads)
     if delta_T is not None:
         dT = float(delta_T)
     n = laminate.n_plies
@@ -378,7 +385,7 @@ def last_ply_failure(
         level = max(level, lam)
         mode = np.where(state == 1, np.where(mode == MODES.index("fibre_compression"),
                                              mode, MODES.index("fibre_tension")), mode)
-        events.append(_event(current, vec, level, failing, point, mode))
+        events.append(_event(current, vec, level, scale, failing, point, mode))
         for i in failing:
             fibre = MODES[int(mode[i])] in _FIBRE_MODES
             state[i] = 2 if fibre else max(state[i], 1)

@@ -22,7 +22,7 @@ from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
-from micromech.errors import DataFileError, InputError
+from micromech.errors import InputError
 from micromech.report.html import escape, html_document, html_table, image_tag
 from micromech.report.markdown import markdown_table, write_atomic
 from micromech.units import format_si
@@ -512,22 +512,21 @@ def write_check_report(result: Any, directory: str | Path) -> dict[str, Path]:
 
 
 def demo_directory() -> Path:
-    """Return the folder of the invented demo cases (``data/demo`` of the source tree).
+    """Return the folder of the invented demo cases (source tree or installed data files).
 
     Returns
     -------
     Path
-        The folder.
+        The folder holding ``crossply.toml`` (see :func:`micromech.resources.data_directory`).
 
     Raises
     ------
     DataFileError
         If the demo data are not installed.
     """
-    d = Path(__file__).resolve().parents[2] / "data" / "demo"
-    if not (d / "crossply.toml").is_file():
-        raise DataFileError(f"demo data not found in {d} (they ship with the source tree)")
-    return d
+    from micromech.resources import data_directory
+
+    return data_directory("demo", "crossply.toml")
 
 
 def run_demo_check(out_dir: str | Path, *, write: bool = True) -> dict[str, Any]:

@@ -190,6 +190,15 @@ def _load_text(vec: np.ndarray) -> str:
     return ", ".join(parts)
 
 
+def _at_failure(resultants: np.ndarray, factor: float) -> str:
+    """Resultants at a failure event, or why there are none."""
+    if factor == 0.0:
+        return "no load: the residual (thermal) stress alone exceeds the strength"
+    if not np.isfinite(factor):
+        return "never along this load direction"
+    return _load_text(resultants)
+
+
 def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
     """Render the laminate results as plain text (no colour codes).
 
@@ -252,8 +261,8 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
         out.append("")
         out.append(
             f"First-ply failure ({analysis.criterion}): load factor {_fmt(e.load_factor, 0)} "
-            f"-> {_load_text(np.asarray(e.resultants))}; plies {', '.join(map(str, e.plies))} "
-            f"({', '.join(sorted(set(e.modes)))})"
+            f"-> {_at_failure(np.asarray(e.resultants), e.load_factor)}; plies "
+            f"{', '.join(map(str, e.plies))} ({', '.join(sorted(set(e.modes)))})"
         )
     if analysis.sequence is not None and analysis.sequence.events:
         seq = analysis.sequence
@@ -264,7 +273,8 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
             out.append(f"  {n:>5}{_fmt(e.load_factor, 13)}  {desc}")
         end = "laminate collapsed" if seq.collapsed else "remaining plies do not fail"
         out.append(f"  last-ply failure: load factor {_fmt(seq.last_ply_factor, 0)} "
-                   f"-> {_load_text(analysis.loads * seq.last_ply_factor)} ({end})")
+                   f"-> {_at_failure(analysis.loads * seq.last_ply_factor, seq.last_ply_factor)}"
+                   f" ({end})")
     if analysis.notes:
         out.append("")
         out += [f"note: {n}" for n in analysis.notes]

@@ -23,13 +23,20 @@ from itertools import product
 from typing import Any
 
 import numpy as np
-from numpy.typing import ArrayLike
+from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
+from micromech.results import ElasticConstants
 from micromech.units import format_si
 
 __all__ = [
     "MODEL_LABELS",
+    "STACK_ARCHITECTURES",
+    "STACK_PROPERTIES",
+    "UD_PROPERTIES",
+    "constant_of",
+    "direction_of",
+    "property_name",
     "Diagnosis",
     "consistency_reasons",
     "fit_size_error",
@@ -171,6 +178,118 @@ class Diagnosis:
 
 
 # ------------------------------------------------------------------------------------------
+# property names by architecture and load case
+
+#: Architectures whose properties carry stack names (Ex ... nuzy).
+STACK_ARCHITECTURES = ("crossply", "stack")
+_UD_NAMES = {"x": "E1", "y": "E2", "z": "E3", "xy": "G12", "xz": "G13", "yz": "G23"}
+_STACK_NAMES = {"x": "Ex", "y": "Ey", "z": "Ez", "xy": "Gxy", "xz": "Gxz", "yz": "Gyz"}
+_NU_INDEX = {"x": "1", "y": "2", "z": "3"}
+#: Name -> ElasticConstants attribute (stack results carry Ex as E1 ...).
+_CONST = {
+    **{n: n for n in ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")},
+    "Ex": "E1", "Ey": "E2", "Ez": "E3", "Gxy": "G12", "Gxz": "G13", "Gyz": "G23",
+    "nuxy": "nu12", "nuxz": "nu13", "nuyz": "nu23",
+}
+#: Minor Poisson ratios: nu_ji = nu_ij E_j / E_i.
+_MINOR = {"nu21": ("nu12", "E2", "E1"), "nu31": ("nu13", "E3", "E1"),
+          "nu32": ("nu23", "E3", "E2"), "nuyx": ("nu12", "E2", "E1"),
+          "nuzx": ("nu13", "E3", "E1"), "nuzy": ("nu23", "E3", "E2")}
+#: The elastic properties by name: material axes and stack axes.
+UD_PROPERTIES = (*_UD_NAMES.values(), "nu12", "nu13", "nu23", "nu21", "nu31", "nu32")
+STACK_PROPERTIES = (*_STACK_NAMES.values(), "nuxy", "nuxz", "nuyz", "nuyx", "nuzx", "nuzy")
+
+
+def property_name(architecture: str, direction: str, lateral: str | None = None) -> str:
+    """Name of the property a load case measures.
+
+    Parameters
+    ----------
+    architecture : str
+        ``unidirectional``, ``particulate`` (names E1 ... nu32) or ``crossply``, ``stack``
+        (names Ex ... nuzy).
+    direction : str
+        Load case: x, y, z, xy, xz, yz.
+    lateral : str, optional
+        Lateral axis, for a Poisson ratio nu_{direction, lateral}.
+
+    Returns
+    -------
+    str
+        E.g. ``"E2"``, ``"Gxy"``, ``"nu12"``, ``"nuyx"``.
+
+    Raises
+    ------
+    InputError
+        For an unknown direction or a lateral axis equal to the load axis.
+    """
+    stack = architecture in STACK_ARCHITECTURES
+    names = _STACK_NAMES if stack else _UD_NAMES
+    if direction not in names:
+        raise InputError(f"direction = {direction!r}: expected one of {sorted(names)}")
+    if lateral is None:
+        return names[direction]
+    if direction not in _NU_INDEX or lateral not in _NU_INDEX or lateral == direction:
+        raise InputError(
+            f"Poisson ratio of load case {direction!r} needs a lateral axis among x, y, z other "
+            f"than the load axis, got {lateral!r}"
+        )
+    return f"nu{direction}{lateral}" if stack else f"nu{_NU_INDEX[direction]}{_NU_INDEX[lateral]}"
+
+
+def direction_of(name: str) -> tuple[str | None, str | None]:
+    """Return the load case and lateral axis that measure a property.
+
+    Parameters
+    ----------
+    name : str
+        Property name (``"E2"``, ``"nuzx"``, ``"yield_strength_xy"`` ...).
+
+    Returns
+    -------
+    (str or None, str or None)
+        Load direction and lateral axis (None where not applicable or unknown).
+    """
+    for table in (_UD_NAMES, _STACK_NAMES):
+        for d, n in table.items():
+            if n == name:
+                return d, None
+    if name.startswith("nu") and len(name) == 4:
+        a, b = name[2], name[3]
+        inv = {v: k for k, v in _NU_INDEX.items()}
+        a, b = inv.get(a, a), inv.get(b, b)
+        return a, b
+    if "strength_" in name:
+        return name.rsplit("_", 1)[-1], None
+    return None, None
+
+
+def constant_of(ec: ElasticConstants, name: str) -> NDArray[np.float64] | None:
+    """Return a named constant of a result (minor Poisson ratios by reciprocity).
+
+    Parameters
+    ----------
+    ec : ElasticConstants
+        The result (stack results carry Ex as E1 ...).
+    name : str
+        Property name in material or stack axes.
+
+    Returns
+    -------
+    ndarray or None
+        The value, None where the result does not give it.
+    """
+    if name in _MINOR:
+        nu, ej, ei = _MINOR[name]
+        a, b, c = ec.get(nu), ec.get(ej), ec.get(ei)
+        if a is None or b is None or c is None:
+            return None
+        return np.asarray(a * b / c)
+    attr = _CONST.get(name)
+    return None if attr is None else ec.get(attr)
+
+
+# ------------------------------------------------------------------------------------------
 # likely causes
 
 
@@ -219,7 +338,10 @@ def likely_causes(
     out: list[tuple[float, str]] = []
     if best_value is None or best_value == 0.0:
         return []
-    ratio = value / best_value
+    with np.errstate(over="ignore", under="ignore"):
+        ratio = float(np.float64(value) / np.float64(best_value))
+    if not math.isfinite(ratio):  # a value near the float range over a small estimate
+        ratio = math.copysign(1e300, ratio)
     label = best_model
     lo_ok = (band[0] if band else best_value * 0.85) / 1.15
     hi_ok = (band[1] if band else best_value * 1.15) * 1.15
@@ -234,7 +356,7 @@ def likely_causes(
     if ratio > 0:
         for f, text in _unit_factors(kind, ctx.source):
             r = ratio / f
-            if abs(math.log(r)) < math.log(3.0) and inside_bounds(value / f):
+            if _positive(r) and abs(math.log(r)) < math.log(3.0) and inside_bounds(value / f):
                 residual = r
                 out.append((-10.0 + abs(math.log(r)), (
                     f"A unit slip: {name} is {ratio:.3g} times {label} = "
@@ -246,6 +368,8 @@ def likely_causes(
         groups: dict[float, list[str]] = {}
         for f, text in _geometry_factors(kind, ctx):
             corrected = best_value * residual / f
+            if not (_positive(residual / f) and math.isfinite(corrected)):
+                continue
             gain = abs(math.log(residual)) - abs(math.log(residual / f))
             if lo_g <= corrected <= hi_g and inside_bounds(corrected) and gain > 0.05:
                 groups.setdefault(float(f"{f:.3g}"), []).append(text)
@@ -292,6 +416,11 @@ def likely_causes(
                 f"{label}, so a wrong fraction alone cannot explain it.")))
     out.sort(key=lambda t: t[0])
     return [f"Likely cause {i + 1}: {text}" for i, (_, text) in enumerate(out)]
+
+
+def _positive(x: float) -> bool:
+    """Whether x is a finite positive number (its logarithm exists)."""
+    return math.isfinite(x) and x > 0.0
 
 
 def _rest(r: float) -> str:
@@ -369,7 +498,7 @@ def _geometry_factors(kind: str, ctx: Diagnosis) -> list[tuple[float, str]]:
                 continue
             # nu = (u_lat / L_lat) / (u_ax / L_ax)
             f = (L[lat] * L[ax_used]) / (L[lat_used] * L[d])
-            if abs(math.log(f)) > 0.01:
+            if _positive(f) and abs(math.log(f)) > 0.01:
                 out.append((f, (
                     f"the lateral strain taken over the {lat_used} edge and the axial "
                     f"strain over the {ax_used} edge")))
@@ -383,7 +512,7 @@ def _geometry_factors(kind: str, ctx: Diagnosis) -> list[tuple[float, str]]:
         if (face_used, len_used) == (face_true, len_true):
             continue
         f = (area(face_true) * L[len_used]) / (area(face_used) * L[len_true])
-        if abs(math.log(f)) < 0.01:
+        if not _positive(f) or abs(math.log(f)) < 0.01:
             continue
         parts = []
         if face_used != face_true:

@@ -23,8 +23,11 @@ particulate    Voigt/Reuss                    Mori-Tanaka (spheres/spheroids); H
 
 Directions: x, y in-plane and z through the thickness; for unidirectional and particulate cells
 x = 1 (the fibre axis), y = 2, z = 3, and the properties are named E1 ... nu32; for stacks Ex
-... nuzy. Strengths are graded against the limit-analysis bounds (matrix yield below; Voigt
-average of the phase strengths above); outside them a strength is ``suspect``.
+... nuzy. Strengths are graded against the limit-analysis bounds (matrix yield below, in shear
+its von Mises shear yield, yield / sqrt(3); Voigt average of the phase strengths above, normal
+load cases only); outside them a strength is ``suspect``. Averaged load cases or a full matrix
+give the effective 6x6 stiffness, whose symmetry error and positive definiteness are reported
+(:attr:`CheckResult.stiffness`) and whose engineering constants are graded.
 
 Estimates and bounds are not design allowables: qualified test data, the applicable codes and a
 licensed engineer decide.
@@ -51,6 +54,9 @@ from numpy.typing import NDArray
 from micromech import tensors
 from micromech.errors import CaseFileError, InputError
 from micromech.results import ElasticConstants
+from micromech.rve.causes import STACK_ARCHITECTURES as _STACK_ARCH
+from micromech.rve.causes import STACK_PROPERTIES as _STACK_ALL
+from micromech.rve.causes import UD_PROPERTIES as _UD_ALL
 from micromech.rve.causes import (
     Diagnosis,
     consistency_reasons,
@@ -59,8 +65,11 @@ from micromech.rve.causes import (
     likely_causes,
     model_label,
     property_kind,
+    property_name,
     size_error_reason,
 )
+from micromech.rve.causes import constant_of as _const
+from micromech.rve.causes import direction_of as _direction_of
 from micromech.rve.tolerances import (
     Band,
     corner_plies,
@@ -99,89 +108,9 @@ __all__ = [
 
 Array = NDArray[np.float64]
 
-_STACK_ARCH = ("crossply", "stack")
-_UD_NAMES = {"x": "E1", "y": "E2", "z": "E3", "xy": "G12", "xz": "G13", "yz": "G23"}
-_STACK_NAMES = {"x": "Ex", "y": "Ey", "z": "Ez", "xy": "Gxy", "xz": "Gxz", "yz": "Gyz"}
-_NU_INDEX = {"x": "1", "y": "2", "z": "3"}
-#: Name -> ElasticConstants attribute (stack results carry Ex as E1 ...).
-_CONST = {
-    **{n: n for n in ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")},
-    "Ex": "E1", "Ey": "E2", "Ez": "E3", "Gxy": "G12", "Gxz": "G13", "Gyz": "G23",
-    "nuxy": "nu12", "nuxz": "nu13", "nuyz": "nu23",
-}
-#: Minor Poisson ratios: nu_ji = nu_ij E_j / E_i.
-_MINOR = {"nu21": ("nu12", "E2", "E1"), "nu31": ("nu13", "E3", "E1"),
-          "nu32": ("nu23", "E3", "E2"), "nuyx": ("nu12", "E2", "E1"),
-          "nuzx": ("nu13", "E3", "E1"), "nuzy": ("nu23", "E3", "E2")}
-_UD_ALL = (*_UD_NAMES.values(), "nu12", "nu13", "nu23", "nu21", "nu31", "nu32")
-_STACK_ALL = (*_STACK_NAMES.values(), "nuxy", "nuxz", "nuyz", "nuyx", "nuzx", "nuzy")
 _VOIGT = {"x": 0, "y": 1, "z": 2, "yz": 3, "xz": 4, "xy": 5}
 _GRID_POINTS = 61
 _HS_MODELS = ("hashin_shtrikman_lower", "hashin_shtrikman_upper")
-
-
-def property_name(architecture: str, direction: str, lateral: str | None = None) -> str:
-    """Name of the property a load case measures.
-
-    Parameters
-    ----------
-    architecture : str
-        ``unidirectional``, ``particulate`` (names E1 ... nu32) or ``crossply``, ``stack``
-        (names Ex ... nuzy).
-    direction : str
-        Load case: x, y, z, xy, xz, yz.
-    lateral : str, optional
-        Lateral axis, for a Poisson ratio nu_{direction, lateral}.
-
-    Returns
-    -------
-    str
-        E.g. ``"E2"``, ``"Gxy"``, ``"nu12"``, ``"nuyx"``.
-
-    Raises
-    ------
-    InputError
-        For an unknown direction or a lateral axis equal to the load axis.
-    """
-    stack = architecture in _STACK_ARCH
-    names = _STACK_NAMES if stack else _UD_NAMES
-    if direction not in names:
-        raise InputError(f"direction = {direction!r}: expected one of {sorted(names)}")
-    if lateral is None:
-        return names[direction]
-    if direction not in _NU_INDEX or lateral not in _NU_INDEX or lateral == direction:
-        raise InputError(
-            f"Poisson ratio of load case {direction!r} needs a lateral axis among x, y, z other "
-            f"than the load axis, got {lateral!r}"
-        )
-    return f"nu{direction}{lateral}" if stack else f"nu{_NU_INDEX[direction]}{_NU_INDEX[lateral]}"
-
-
-def _direction_of(name: str) -> tuple[str | None, str | None]:
-    """(load direction, lateral axis) a property is measured in."""
-    for table in (_UD_NAMES, _STACK_NAMES):
-        for d, n in table.items():
-            if n == name:
-                return d, None
-    if name.startswith("nu") and len(name) == 4:
-        a, b = name[2], name[3]
-        inv = {v: k for k, v in _NU_INDEX.items()}
-        a, b = inv.get(a, a), inv.get(b, b)
-        return a, b
-    if "strength_" in name:
-        return name.rsplit("_", 1)[-1], None
-    return None, None
-
-
-def _const(ec: ElasticConstants, name: str) -> Array | None:
-    if name in _MINOR:
-        nu, ej, ei = _MINOR[name]
-        a, b, c = ec.get(nu), ec.get(ej), ec.get(ei)
-        if a is None or b is None or c is None:
-            return None
-        return np.asarray(a * b / c)
-    attr = _CONST.get(name)
-    return None if attr is None else ec.get(attr)
 
 
 # ------------------------------------------------------------------------------------------

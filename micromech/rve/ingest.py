@@ -31,6 +31,7 @@ read the Poisson ratios nu_ij = -eps_j / eps_i.
 
 from __future__ import annotations
 
+import math
 import warnings
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
@@ -42,7 +43,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from micromech.errors import DataFileError, InputError, UnitError
+from micromech.errors import DataFileError, InputError, MicromechError, UnitError
 from micromech.units import parse_quantity, unit_factor
 
 __all__ = [
@@ -105,6 +106,10 @@ class Table:
     bad_cells : Mapping of int to (int, str)
         For each 0-based column with a cell that is not a number: the line and text of the
         first such cell.
+    units : tuple of str
+        A row of units right under the header (every cell text, e.g. ``s, N, mm``), else empty.
+    units_line : int or None
+        Line number of that row.
     """
 
     path: str
@@ -114,6 +119,8 @@ class Table:
     delimiter: str
     header_line: int | None = None
     bad_cells: Mapping[int, tuple[int, str]] = field(default_factory=dict)
+    units: tuple[str, ...] = ()
+    units_line: int | None = None
 
     @property
     def n_rows(self) -> int:
@@ -263,7 +270,7 @@ def read_table(
     -------
     Table
         The table. The first non-comment line is a header when any of its cells is not a
-        number.
+        number; a line right under it with no number in any cell is a row of units.
 
     Raises
     ------
@@ -327,11 +334,19 @@ def read_table(
     first_line = int(numbers[0])
     header: tuple[str, ...] = ()
     header_line: int | None = None
+    units: tuple[str, ...] = ()
+    units_line: int | None = None
     if not all(_is_number(c) for c in first):
         header = tuple(c.strip().strip('"').strip("'").strip() for c in first)
         header_line = int(numbers[0])
         lines = lines[1:]
         numbers = numbers[1:]
+        below = _split(lines[0], delim) if lines else []
+        if len(below) == len(first) and not any(_is_number(c) for c in below):
+            units = tuple(c.strip().strip('"').strip("'").strip() for c in below)
+            units_line = int(numbers[0])
+            lines = lines[1:]
+            numbers = numbers[1:]
     n_cols = len(first)
     if len(lines) < _MIN_ROWS:
         raise DataFileError(
@@ -347,7 +362,8 @@ def read_table(
     numbers.flags.writeable = False
     return Table(
         path=name, header=header, data=data, lines=numbers, delimiter=delim,
-        header_line=header_line, bad_cells=MappingProxyType(bad),
+        header_line=header_line, bad_cells=MappingProxyType(bad), units=units,
+        units_line=units_line,
     )
 
 
@@ -664,6 +680,28 @@ def _cached_factor(unit: str | None, kind: str, field: str) -> float:
     return unit_factor(str(unit).strip(), field)
 
 
+def _unit(table: Table, column: str | int, unit: Any, kind: str, role: str) -> float:
+    """SI factor of a column's declared unit, checked against the file's row of units."""
+    factor = _factor(unit, kind, f"{role} unit")
+    if not table.units:
+        return factor
+    j = table.index(column, f"{role} column")
+    text = table.units[j].strip().strip("[]()").strip()
+    if not text:
+        return factor
+    try:
+        given = _cached_factor(text, kind, f"{role} unit row")
+    except MicromechError:
+        return factor  # a label that is no unit of this kind: nothing to compare
+    if not math.isclose(given, factor, rel_tol=1e-9):
+        raise UnitError(
+            f"{table.path}, line {table.units_line}: the {role} column {table.names[j]!r} is in "
+            f"{text!r} by the file's row of units, but its unit is declared {unit!r}; declare "
+            "the unit the file holds"
+        )
+    return factor
+
+
 _EXAMPLE_UNITS = {"force": "'N' or 'mN'", "length": "'mm' or 'um'", "pressure": "'MPa'"}
 
 
@@ -780,17 +818,18 @@ def history_to_curve(
     area, gauge = _case_geometry(direction, size)
     fcol, funit = _spec(force, "force")
     dcol, dunit = _spec(displacement, "displacement")
-    f = table.column(fcol, "force column") * _factor(funit, "force", "force unit")
-    u = table.column(dcol, "displacement column") * _factor(dunit, "length", "displacement unit")
+    f = table.column(fcol, "force column") * _unit(table, fcol, funit, "force", "force")
+    u = table.column(dcol, "displacement column") * _unit(table, dcol, dunit, "length",
+                                                          "displacement")
     lat: dict[str, Array] = {}
     for axis, spec in _lateral_items(lateral, table.path):
         _check_lateral_axis(direction, axis, table.path)
         col, unit = _spec(spec, f"lateral {axis}")
         values = table.column(col, f"lateral {axis} column")
         if unit is not None and _is_strain_unit(unit):  # lateral strain given directly
-            lat[axis] = values * _factor(unit, "dimensionless", f"lateral {axis} unit")
+            lat[axis] = values * _unit(table, col, unit, "dimensionless", f"lateral {axis}")
         else:
-            unit_si = _factor(unit, "length", f"lateral {axis} unit")
+            unit_si = _unit(table, col, unit, "length", f"lateral {axis}")
             with np.errstate(over="ignore"):
                 lat[axis] = values * unit_si / size[_AXIS[axis]]
     with np.errstate(over="ignore"):
@@ -847,14 +886,16 @@ def curve_from_columns(
     scol, sunit = _spec(stress, "stress")
     ecol, eunit = _spec(strain, "strain")
     with np.errstate(over="ignore"):
-        sig = table.column(scol, "stress column") * _factor(sunit, "pressure", "stress unit")
-    eps = table.column(ecol, "strain column") * _factor(eunit, "dimensionless", "strain unit")
+        sig = table.column(scol, "stress column") * _unit(table, scol, sunit, "pressure",
+                                                           "stress")
+    eps = table.column(ecol, "strain column") * _unit(table, ecol, eunit, "dimensionless",
+                                                       "strain")
     lat: dict[str, Array] = {}
     for axis, spec in _lateral_items(lateral, table.path):
         _check_lateral_axis(direction, axis, table.path)
         col, unit = _spec(spec, f"lateral {axis}")
-        lat[axis] = table.column(col, f"lateral {axis} column") * _factor(
-            unit, "dimensionless", f"lateral {axis} unit"
+        lat[axis] = table.column(col, f"lateral {axis} column") * _unit(
+            table, col, unit, "dimensionless", f"lateral {axis}"
         )
     _check_finite(table, sig, "stress")
     return Curve(direction=direction, strain=eps, stress=sig, lateral=lat, source=table.path,

@@ -84,3 +84,11 @@ def test_plot_that_cannot_be_written_is_refused_before_sizing(case_file, tmp_pat
     assert r.exit_code == 2 and "error: --plot = " in r.output and "does not exist" in r.output
     r = run("size", str(case_file), "--target", "E2=9GPa", "--plot", str(tmp_path / "s.xyz"))
     assert r.exit_code == 2 and "format 'xyz' is not an image format" in r.output
+
+
+def test_too_many_samples_are_refused_by_the_option(case_file):
+    from micromech.design.uncertainty import MAX_SAMPLES
+
+    assert cli_module._SIZE_MAX_SAMPLES == MAX_SAMPLES
+    r = run("size", str(case_file), "--uncertainty", str(MAX_SAMPLES + 1))
+    assert r.exit_code == 2 and "--uncertainty" in r.output and "Traceback" not in r.output

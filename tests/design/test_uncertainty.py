@@ -119,6 +119,11 @@ def test_too_few_samples_is_an_error():
         propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 1)
 
 
+def test_too_many_samples_is_an_error_before_any_memory_is_taken():
+    with pytest.raises(InputError, match=r"samples: n = 100000000; at most 1e\+07"):
+        propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10**8)
+
+
 def test_percentile_out_of_range_is_an_error():
     with pytest.raises(InputError, match=r"percentiles: \[5.0, 150.0\] must each lie in"):
         propagate(rom, {"Ef": MEF, "Em": MEM, "Vf": MVF}, 10, percentiles=(5, 150))

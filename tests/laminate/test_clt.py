@@ -270,3 +270,10 @@ def test_ply_3d_stiffness_needs_nu23(graphite_epoxy_2d):
     lam = Laminate((Ply(graphite_epoxy_2d, 0.0, 1e-3),))
     with pytest.raises(InputError, match="3D stiffness needs"):
         lam.stack_constants()
+
+
+@pytest.mark.parametrize("t", [1e-300, 1e-150, 1e110])
+def test_ply_thickness_that_makes_abd_singular_is_refused(graphite_epoxy, t):
+    with pytest.raises(InputError, match=r"the ABD matrix cannot be inverted for ply thicknesses "
+                                         r"from .* m \(total .* m\): the bending stiffness"):
+        Laminate.from_code("[0/90]s", graphite_epoxy, t)

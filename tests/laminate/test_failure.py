@@ -203,3 +203,14 @@ def test_bad_arguments_are_refused():
         max_strain(np.ones(3), S, np.eye(2))
     with pytest.raises(InputError, match="unknown 'puck'; choose one of max_stress"):
         evaluate_criterion("puck", np.ones(3), S)
+
+
+@pytest.mark.parametrize("criterion", CRITERIA)
+@pytest.mark.parametrize("k", [1e-300, 1e-150, 1e150, 1e300])
+def test_extreme_loads_neither_overflow_nor_underflow(criterion, k):
+    s = np.array([120e6, -30e6, 20e6])
+    thermal = np.array([5e6, 10e6, 0.0])
+    r1 = float(_ratio(criterion, s, thermal=thermal).strength_ratio)
+    with np.errstate(all="raise"):  # no overflow, underflow to zero or invalid operation
+        rk = float(_ratio(criterion, k * s, thermal=thermal).strength_ratio)
+    assert np.isfinite(rk) and rk == pytest.approx(r1 / k, rel=1e-12)  # exact scaling 1/load

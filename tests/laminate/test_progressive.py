@@ -137,3 +137,16 @@ def test_failure_analysis_errors(graphite_epoxy, graphite_epoxy_2d):
     weak = PlyMaterial(E1=181e9, E2=10.3e9, nu12=0.28, G12=7.17e9, strengths={"Xt": 1e9})
     with pytest.raises(InputError, match="ply 0 .*strength Xc missing"):
         first_ply_failure(Laminate.from_code("[0]", weak, 1e-3), {"Nx": 1.0})
+
+
+@pytest.mark.parametrize("k", [1e-300, 1e300])
+def test_failure_loads_of_extreme_resultants_scale_exactly(graphite_epoxy, k):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    ref = last_ply_failure(lam, {"Nx": 1.0}, criterion="tsai_wu")
+    seq = last_ply_failure(lam, {"Nx": k}, criterion="tsai_wu")
+    assert [e.load_factor * k for e in seq.events] == pytest.approx(
+        [e.load_factor for e in ref.events], rel=1e-12)
+    assert seq.events[-1].resultants[0] == pytest.approx(ref.events[-1].resultants[0], rel=1e-12)
+    fpf = first_ply_failure(lam, {"Nx": k}, criterion="hashin")
+    assert fpf.load_factor * k == pytest.approx(
+        first_ply_failure(lam, {"Nx": 1.0}, criterion="hashin").load_factor, rel=1e-12)

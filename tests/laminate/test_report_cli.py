@@ -158,3 +158,12 @@ def test_command_refuses_a_plot_it_cannot_write(case_file, tmp_path, plot, messa
                                       str(tmp_path / plot)])
     assert result.exit_code == 2 and re.search(message, result.output)
     assert "Traceback" not in result.output
+
+
+def test_table_says_when_the_residual_stress_alone_fails_or_nothing_fails(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    hot = laminate_table(analyse_laminate(lam, {"Nx": 1e5, "delta_T": -1e6}))
+    assert "load factor 0 -> no load: the residual (thermal) stress alone exceeds" in hot
+    from micromech.report.laminate import _at_failure
+
+    assert _at_failure(np.zeros(6), float("inf")) == "never along this load direction"

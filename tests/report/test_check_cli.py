@@ -118,3 +118,15 @@ def test_json_carries_the_effective_stiffness_of_a_matrix_case(tmp_path):
     assert d["stiffness"]["source"] == "matrix" and d["stiffness"]["positive_definite"] is True
     assert d["stiffness"]["stiffness"][0][0] == 9e9 and d["stiffness"]["symmetry_error"] == 0.0
     assert {"E1", "G12", "nu12"} <= set(d["properties"])
+
+
+def test_strain_range_option_parser_raises_on_bad_text():
+    import pytest
+
+    from micromech.cli import _check_range_option
+    from micromech.errors import InputError
+
+    assert _check_range_option(" 0.001 , 0.004 ") == (0.001, 0.004)
+    assert _check_range_option(None) is None
+    with pytest.raises(InputError, match=r"--strain-range: '1,2,3' must be two strains"):
+        _check_range_option("1,2,3")

@@ -220,10 +220,12 @@ def test_report_folder_that_cannot_be_created_raises(tmp_path):
         write_check_report(small_result(tmp_path), blocker / "sub")
 
 
-def test_missing_demo_data_raises(monkeypatch, tmp_path):
-    import micromech.report.check as report_check
+def test_demo_directory_holds_the_demo_cases_or_raises(monkeypatch, tmp_path):
+    import micromech.resources
     from micromech.errors import DataFileError
+    from micromech.report.check import demo_directory
 
-    monkeypatch.setattr(report_check, "__file__", str(tmp_path / "a" / "b" / "check.py"))
-    with pytest.raises(DataFileError, match="demo data not found"):
-        report_check.demo_directory()
+    assert (demo_directory() / "crossply_bad.toml").is_file()
+    monkeypatch.setattr(micromech.resources, "data_candidates", lambda name: [tmp_path / name])
+    with pytest.raises(DataFileError, match="bundled demo data not found"):
+        demo_directory()

@@ -549,3 +549,27 @@ def test_expected_properties_without_composite_raises():
                                    "stiffness": {"matrix": np.eye(6).tolist()}}})
     with pytest.raises(CaseFileError, match=r"needs \[fibre\], \[matrix\], \[composite\]"):
         expected_properties(case, ["E1"])
+
+
+def test_quasi_isotropic_stack_grades_through_the_stack_constants():
+    from micromech.laminate.layup import parse_layup
+
+    C = estimate(case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.55}})
+                 .composite, strengths=False)["mori_tanaka"].stiffness()
+    angles = np.asarray(parse_layup("[0/+-45/90]s"), dtype=float)
+    stack = stack_constants(np.broadcast_to(C, (angles.size, 6, 6)),
+                            np.full(angles.size, 1 / angles.size), angles=angles).stiffness
+
+    def graded(scale):
+        data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+                "rve": {"architecture": "stack", "layup": "[0/+-45/90]s",
+                        "stiffness": {"matrix": (scale * stack / 1e9).tolist(), "unit": "GPa"}}}
+        return check_case(case_from_dict(data)).properties
+
+    good = graded(1.0)  # the stack of Mori-Tanaka plies itself (exact identity)
+    assert all(p.verdict == "consistent" for p in good.values())
+    assert good["Gxy"].best_model == "stack_mori_tanaka"
+    low = graded(0.6)  # 40 % below: in-plane moduli inside Voigt/Reuss, so suspect
+    for name in ("Ex", "Ey", "Gxy"):
+        assert low[name].verdict == "suspect"
+        assert low[name].lower_bound < low[name].value < low[name].upper_bound

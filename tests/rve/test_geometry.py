@@ -563,3 +563,17 @@ def test_cli_plot_and_out_must_differ(tmp_path: Path) -> None:
     res = run_cli("--fraction", "0.5", "--diameter", "7 um", "--packing", "square", "--out",
                   target, "--plot", target)
     assert res.exit_code == 2 and "--plot = " in res.output and "also the --out file" in res.output
+
+
+def test_cells_too_large_to_build_are_refused_before_any_work() -> None:
+    with pytest.raises(InputError, match=r"n_fibres = 6000: a random cell holds at most 5000 "
+                                         r"fibres.*50 fibre radii .* needs 478"):
+        random_cell(0.6, D, n_fibres=6000)
+    with pytest.raises(InputError, match=r"cell_size = '10 mm' gives 1559069 fibres at this "
+                                         r"fraction: a random cell holds at most 5000"):
+        random_cell(0.6, D, cell_size="10 mm")
+    with pytest.raises(InputError, match=r"n_per_side = 1001: a square cell of 1002001 fibres "
+                                         r"exceeds the limit of 1000000"):
+        square_cell(0.5, D, n_per_side=1001)
+    with pytest.raises(InputError, match=r"n_per_side = 800: a hexagonal cell of 1280000"):
+        hexagonal_cell(0.5, D, n_per_side=800)

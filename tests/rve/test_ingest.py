@@ -462,3 +462,38 @@ def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, ex
             except DataFileError as exc:
                 outcomes.append(type(exc))
     assert outcomes[0] == outcomes[1]
+
+
+# --- a row of units under the header --------------------------------------------------------
+
+UNITS_FILE = "# invented\ntime,force,disp,eps\ns,[mN],(um),%\n0,0,0,0\n1,2,1,0.1\n2,4,2,0.2\n"
+
+
+def test_units_row_under_the_header_is_read_and_skipped(tmp_path):
+    t = read_table(write(tmp_path, UNITS_FILE))
+    assert t.header == ("time", "force", "disp", "eps") and t.units_line == 3
+    assert t.units == ("s", "[mN]", "(um)", "%") and t.lines.tolist() == [4, 5, 6]
+    c = history_to_curve(t, "x", SIZE, force=("force", "mN"), displacement=("disp", "um"))
+    assert c.stress[-1] == pytest.approx(4e-3 / (SIZE[1] * SIZE[2]))  # N / m^2
+    s = curve_from_columns(t, "x", stress=("force", "MPa"), strain=("eps", "%"))
+    assert s.strain[-1] == pytest.approx(0.002)
+
+
+@pytest.mark.parametrize(("kwargs", "message"), [
+    ({"force": ("force", "N"), "displacement": ("disp", "um")},
+     r"line 3: the force column 'force' is in 'mN' by the file's row of units, but its unit "
+     r"is declared 'N'"),
+    ({"force": ("force", "mN"), "displacement": ("disp", "mm")},
+     r"the displacement column 'disp' is in 'um'"),
+])
+def test_declared_unit_that_contradicts_the_units_row_raises(tmp_path, kwargs, message):
+    t = read_table(write(tmp_path, UNITS_FILE))
+    with pytest.raises(UnitError, match=message):
+        history_to_curve(t, "x", SIZE, **kwargs)
+
+
+def test_units_row_label_that_is_no_unit_is_not_compared(tmp_path):
+    t = read_table(write(tmp_path, "force,disp\nreaction,stroke\n0,0\n1,1\n2,2\n"))
+    assert t.units == ("reaction", "stroke")
+    c = history_to_curve(t, "x", SIZE, force=("force", "N"), displacement=("disp", "mm"))
+    assert c.n_points == 3
