@@ -657,9 +657,8 @@ def demo_command(out_dir: str, quiet: bool) -> None:
 
     run = run_demo(out_dir)
     if not quiet:
-        for text in run.sections.values():
-            click.echo(text)
-            click.echo("")
+        click.echo(run.summary)
+        click.echo("")
     verdicts = ", ".join(f"{k}: {v}" for k, v in run.verdicts.items())
     click.echo(f"Demo verdicts (invented data): {verdicts}")
     click.echo(f"Report written to {run.files['html'].resolve()}")

@@ -4,6 +4,7 @@
 
 - ``report.html`` (self-contained) and ``report.md``: every step's table, with plots;
 - ``estimate.png``, ``sizing.png``: properties against fibre fraction with the bound band;
+- ``envelope.png``: the laminate's first-ply failure envelope in Nx-Ny for four criteria;
 - ``check/crossply/`` and ``check/crossply_bad/``: the RVE check reports of the good case and of
   the copy with a deliberate unit slip and a wrong cell size;
 - ``summary.json``: the JSON of every step (SI units).
@@ -38,6 +39,9 @@ class DemoRun:
         The main files written, by role.
     sections : dict of str to str
         The text table of each step (estimate, size, laminate, check, check_bad).
+    summary : str
+        A short terminal summary: the tables without the per-property reasons (those are in
+        the reports).
     verdicts : dict of str to str
         Worst verdict of each checked demo case.
     """
@@ -45,6 +49,7 @@ class DemoRun:
     directory: Path
     files: dict[str, Path]
     sections: dict[str, str]
+    summary: str
     verdicts: dict[str, str]
 
 
@@ -81,7 +86,12 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     from micromech.case import load_case
     from micromech.design import size_fraction
     from micromech.homogenize import estimate
-    from micromech.laminate import analyse_laminate, laminate_from_case
+    from micromech.laminate import (
+        analyse_laminate,
+        failure_envelope,
+        laminate_from_case,
+        plot_envelopes,
+    )
     from micromech.report.check import demo_directory, format_check_text, run_demo_check
     from micromech.report.design import CAUTION, plot_sizing, sizing_table
     from micromech.report.estimate import estimate_table, plot_estimates
@@ -102,7 +112,13 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     sizing = size_fraction(panel, list(DEMO_TARGETS))  # the case contributes its layup
     files["sizing_plot"] = plot_sizing(panel, sizing, out / "sizing.png")
 
-    analysis = analyse_laminate(laminate_from_case(panel), panel.laminate.loads)
+    lam = laminate_from_case(panel)
+    analysis = analyse_laminate(lam, panel.laminate.loads)
+    envelopes = [failure_envelope(lam, "Nx,Ny", c, delta_T=analysis.delta_T)
+                 for c in ("max_stress", "tsai_hill", "tsai_wu", "hashin")]
+    files["envelope_plot"] = plot_envelopes(
+        envelopes, out / "envelope.png",
+        title=f"{lam.code}: first-ply failure envelope (cure cool-down held fixed)")
 
     checks = run_demo_check(out / "check")
     sections = {
@@ -121,7 +137,7 @@ def run_demo(out_dir: str | Path) -> DemoRun:
         "check": "4. RVE check of the invented cross-ply run (good)",
         "check_bad": "5. RVE check of the same run with a unit slip and a wrong cell size",
     }
-    images = {"estimate": "estimate.png", "size": "sizing.png"}
+    images = {"estimate": "estimate.png", "size": "sizing.png", "laminate": "envelope.png"}
     links = {"check": "check/crossply/report.html", "check_bad": "check/crossply_bad/report.html"}
 
     md = ["# micromech demo (invented example data)", "", f"> Caution: {CAUTION}", ""]
@@ -149,7 +165,11 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     }
     files["json"] = write_atomic(
         out / "summary.json", json.dumps(summary, indent=2, default=_json_default) + "\n")
-    return DemoRun(directory=out, files=files, sections=sections, verdicts=verdicts)
+    short = [text.split("\nReasons:", 1)[0].rstrip() if key.startswith("check") else text
+             for key, text in sections.items()]
+    short.append(f"(the reasons behind every verdict are in {out / 'check'})")
+    return DemoRun(directory=out, files=files, sections=sections,
+                   summary="\n\n".join(short), verdicts=verdicts)
 
 
 def _json_default(o: Any) -> Any:
