@@ -28,7 +28,13 @@ import numpy as np
 from numpy.typing import NDArray
 
 from micromech.errors import CaseFileError, FractionError, MicromechError, RegistryError
-from micromech.materials.composite import ARRANGEMENTS, INCLUSIONS, Composite
+from micromech.materials.composite import (
+    ARRANGEMENTS,
+    INCLUSIONS,
+    ORIENTATIONS,
+    Composite,
+    check_orientation,
+)
 from micromech.materials.models import (
     Isotropic,
     Material,
@@ -76,7 +82,7 @@ _MATERIAL_KEYS = tuple(sorted(
     | set(Orthotropic.model_fields)
 ))
 _COMPOSITE_KEYS = ("volume_fraction", "weight_fraction", "inclusion", "aspect_ratio",
-                   "arrangement", "void_fraction")
+                   "arrangement", "void_fraction", "orientation")
 _LAMINATE_KEYS = ("layup", "ply_thickness", "loads")
 _RVE_KEYS = ("architecture", "size", "layup", "load_case", "stiffness", "stress_unit")
 _LOAD_CASE_KEYS = ("direction", "file", "force", "displacement", "lateral", "stress", "strain",
@@ -380,6 +386,10 @@ def _composite(
     inclusion = _choice(ctx, table.get("inclusion", "continuous"), INCLUSIONS, where, "inclusion")
     arrangement = _choice(ctx, table.get("arrangement", "random"), ARRANGEMENTS, where,
                           "arrangement")
+    orientation = _choice(ctx, table.get("orientation", "aligned"), ORIENTATIONS, where,
+                          "orientation")
+    with ctx.prefix(where):
+        check_orientation(orientation, inclusion, arrangement)
     aspect = table.get("aspect_ratio")
     if aspect is not None:
         aspect = _positive(ctx, aspect, "dimensionless", where, "aspect_ratio")
@@ -398,10 +408,11 @@ def _composite(
         if key == "volume_fraction":
             return Composite(fibre, matrix, frac, inclusion=inclusion,  # type: ignore[arg-type]
                              aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
-                             void_fraction=void)
+                             void_fraction=void, orientation=orientation)  # type: ignore[arg-type]
         return Composite.from_weight_fraction(
             fibre, matrix, frac, void_fraction=void, inclusion=inclusion,  # type: ignore[arg-type]
             aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
+            orientation=orientation,  # type: ignore[arg-type]
         )
 
 

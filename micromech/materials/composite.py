@@ -29,7 +29,29 @@ spheroid       as sphere                             aligned spheroids are an af
 
 The spheroid limit assumes aligned spheroids (the case of the mean-field estimates). Randomly
 oriented long rods pack much less densely (about 5.4 / aspect ratio, Philipse 1996, from
-memory); that limit is not applied.
+memory); that limit is not applied, also not with ``orientation = "random_3d"``.
+
+Fibre orientation (``orientation``):
+
+================ ================================================= ==========================
+orientation      meaning, axes of the results                      allowed inclusions
+================ ================================================= ==========================
+aligned          all fibre axes along axis 1 (the default)         any
+random_in_plane  fibre axes uniformly distributed over the 1-2     spheroid, continuous
+                 plane; axis 3 is the plate normal, the composite
+                 is transversely isotropic about it (E1 = E2)
+random_3d        fibre axes uniformly distributed over all          spheroid
+                 directions; the composite is isotropic
+================ ================================================= ==========================
+
+Continuous fibres randomly oriented in the plane stand for a continuous-filament or
+chopped-strand mat, or a stack of thin unidirectional layers at random angles: the classical
+orientation average of the aligned stiffness, Christensen and Waals (1972) (from memory). Straight
+continuous fibres cannot run in every direction in space without crossing, so
+``random_3d`` needs ``spheroid`` (a large aspect ratio approaches long fibres; Christensen and
+Waals 1972 treat the 3D average as that limit). A sphere has no orientation: only ``aligned``.
+Random orientations need ``arrangement = "random"``: the square and hexagonal packing limits are
+those of aligned inclusions.
 
 References
 ----------
@@ -41,6 +63,11 @@ References
    *Journal of Physics D* 2(6), 863-866.
 .. [4] Hales, T. C. (2005). A proof of the Kepler conjecture. *Annals of Mathematics* 162,
    1065-1185.
+.. [5] Christensen, R. M., Waals, F. M. (1972). Effective stiffness of randomly oriented fibre
+   composites. *Journal of Composite Materials* 6, 518-535 (from memory).
+.. [6] Philipse, A. P. (1996). The random contact equation and its implications for (colloidal)
+   rods in packings, suspensions, and anisotropic powders. *Langmuir* 12, 1127-1133 (from
+   memory).
 """
 
 from __future__ import annotations
@@ -62,6 +89,9 @@ __all__ = [
     "PACKING_LIMITS",
     "INCLUSIONS",
     "ARRANGEMENTS",
+    "ORIENTATIONS",
+    "ORIENTATION_INCLUSIONS",
+    "check_orientation",
     "packing_limit",
     "volume_fraction_from_weight",
     "weight_fraction_from_volume",
@@ -70,9 +100,17 @@ __all__ = [
 Array = NDArray[np.float64]
 Inclusion = Literal["continuous", "spheroid", "sphere"]
 Arrangement = Literal["random", "square", "hexagonal"]
+Orientation = Literal["aligned", "random_in_plane", "random_3d"]
 
 INCLUSIONS: tuple[str, ...] = ("continuous", "spheroid", "sphere")
 ARRANGEMENTS: tuple[str, ...] = ("random", "square", "hexagonal")
+ORIENTATIONS: tuple[str, ...] = ("aligned", "random_in_plane", "random_3d")
+#: orientation -> inclusions it is allowed with (see the module table).
+ORIENTATION_INCLUSIONS: dict[str, tuple[str, ...]] = {
+    "aligned": INCLUSIONS,
+    "random_in_plane": ("spheroid", "continuous"),
+    "random_3d": ("spheroid",),
+}
 
 #: (inclusion, arrangement) -> (limit, how it is known).
 PACKING_LIMITS: dict[tuple[str, str], tuple[float, str]] = {
@@ -127,6 +165,61 @@ def _choice(field: str, value: Any, options: tuple[str, ...]) -> str:
         hint = f"; did you mean {near[0]!r}?" if near else ""
         raise InputError(f"{field} = {value!r} is not one of {', '.join(options)}{hint}")
     return str(value)
+
+
+def check_orientation(orientation: Any, inclusion: str, arrangement: str = "random") -> str:
+    """Check a fibre orientation against the inclusion shape and the arrangement.
+
+    Parameters
+    ----------
+    orientation : {"aligned", "random_in_plane", "random_3d"}
+        Fibre orientation.
+    inclusion : {"continuous", "spheroid", "sphere"}
+        Inclusion shape.
+    arrangement : {"random", "square", "hexagonal"}
+        Arrangement.
+
+    Returns
+    -------
+    str
+        The orientation.
+
+    Raises
+    ------
+    InputError
+        For an unknown orientation, a random orientation of spheres, continuous fibres random
+        in space, or a random orientation with a square or hexagonal arrangement (see the
+        module table).
+
+    References
+    ----------
+    Christensen and Waals (1972) (orientation averages of aligned-fibre stiffness, from memory).
+
+    Examples
+    --------
+    >>> check_orientation("random_in_plane", "continuous")
+    'random_in_plane'
+    """
+    _choice("orientation", orientation, ORIENTATIONS)
+    if orientation == "aligned":
+        return "aligned"
+    allowed = ORIENTATION_INCLUSIONS[orientation]
+    if inclusion not in allowed:
+        why = ("a sphere has no orientation" if inclusion == "sphere" else
+               "straight continuous fibres cannot run in every direction in space; use "
+               "inclusion = 'spheroid' with a large aspect_ratio")
+        raise InputError(
+            f"orientation = {orientation!r} is not allowed with inclusion = {inclusion!r} "
+            f"(rule: {orientation} needs inclusion {' or '.join(repr(a) for a in allowed)}; "
+            f"{why})"
+        )
+    if arrangement != "random":
+        raise InputError(
+            f"orientation = {orientation!r} is not allowed with arrangement = {arrangement!r} "
+            "(rule: randomly oriented inclusions need arrangement = 'random'; the square and "
+            "hexagonal packing limits are those of aligned inclusions)"
+        )
+    return str(orientation)
 
 
 def _fraction(value: Any, field: str) -> float | Array:
@@ -262,13 +355,19 @@ class Composite:
         Void volume fraction, in [0, 1); v_f + v_v <= 1.
     name : str
         Label.
+    orientation : {"aligned", "random_in_plane", "random_3d"}
+        Fibre orientation: along axis 1; uniformly random in the 1-2 plane (axis 3 is the plate
+        normal; spheroids or continuous fibres); uniformly random in space (spheroids only).
+        See the module table.
 
     Raises
     ------
     FractionError
         A fraction outside [0, 1], v_f + v_v > 1, or v_f above the packing limit.
     InputError
-        An unknown inclusion or arrangement, or an aspect ratio that does not fit the inclusion.
+        An unknown inclusion, arrangement or orientation, an aspect ratio that does not fit the
+        inclusion, a random orientation of spheres or of continuous fibres in space, or a random
+        orientation with a square or hexagonal arrangement.
 
     Examples
     --------
@@ -286,6 +385,7 @@ class Composite:
     arrangement: Arrangement = "random"
     void_fraction: float | Array = 0.0
     name: str = ""
+    orientation: Orientation = "aligned"
 
     def __post_init__(self) -> None:
         for role in ("fibre", "matrix"):
@@ -297,6 +397,7 @@ class Composite:
                 )
         _choice("inclusion", self.inclusion, INCLUSIONS)
         _choice("arrangement", self.arrangement, ARRANGEMENTS)
+        check_orientation(self.orientation, self.inclusion, self.arrangement)
         ar = self.aspect_ratio
         if ar is not None:
             ar = parse_quantity(ar, "dimensionless", "aspect_ratio")
@@ -389,6 +490,7 @@ class Composite:
         aspect_ratio: float | None = None,
         arrangement: Arrangement = "random",
         name: str = "",
+        orientation: Orientation = "aligned",
     ) -> Composite:
         """Build a composite from the fibre weight fraction of the solid.
 
@@ -400,7 +502,7 @@ class Composite:
             Fibre mass / (fibre + matrix mass), in [0, 1].
         void_fraction : float or array_like
             Void volume fraction of the composite, in [0, 1).
-        inclusion, aspect_ratio, arrangement, name :
+        inclusion, aspect_ratio, arrangement, name, orientation :
             As for :class:`Composite`.
 
         Returns
@@ -423,7 +525,7 @@ class Composite:
             wf, _density(fibre, "fibre"), _density(matrix, "matrix"), vv
         )
         return cls(fibre, matrix, _scalar(vf), inclusion=inclusion, aspect_ratio=aspect_ratio,
-                   arrangement=arrangement, void_fraction=vv, name=name)
+                   arrangement=arrangement, void_fraction=vv, name=name, orientation=orientation)
 
 
 def _scalar(x: Any) -> float | Array:

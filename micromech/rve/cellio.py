@@ -20,8 +20,6 @@ if TYPE_CHECKING:  # pragma: no cover
 
 __all__ = ["CAUTION", "csv_text", "write_atomic", "plot_arrangement"]
 
-#: The caution every written or printed output carries.
-
 
 def csv_text(arrangement: FibreArrangement, unit: str = "um") -> str:
     """CSV text of the circles of a cell: the fibres, then the images that cut the faces.

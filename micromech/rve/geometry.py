@@ -6,6 +6,10 @@ fraction, nearest-neighbour statistics and the record needed to reproduce it (me
 :meth:`FibreArrangement.to_csv` and :meth:`FibreArrangement.to_json` write the centres for a
 mesher, together with the periodic images of the fibres that cut the cell faces.
 
+The statistics and the RVE-size guidance are in :mod:`micromech.rve.cellstats`, the packing
+numerics in :mod:`micromech.rve.packing` and the file writing in :mod:`micromech.rve.cellio`;
+their public names are re-exported here.
+
 Packing limits (``d`` fibre diameter, ``g`` minimum gap between fibre surfaces):
 
 ========== ============================================ ================================
@@ -22,8 +26,7 @@ The random limits were measured with :func:`random_cell` (10 seeds per case, gap
 0.1 d): with 20 to 560 fibres every run reached an exclusion fraction ``vf ((d+g)/d)^2`` of
 0.78, while 0.80 failed for some seeds and counts (13, 17, 19, 30 fibres); small square cells
 frustrate the packing (7 fibres fail from 0.74, 10 and 13 fibres at 0.76 to 0.78), and 6 to 19
-fibres all reached 0.72. Random close packing of equal discs is near 0.82 to 0.84 [3]_. The
-numerics of the random cell are in :mod:`micromech.rve.packing`.
+fibres all reached 0.72. Random close packing of equal discs is near 0.82 to 0.84 [3]_.
 
 References
 ----------
@@ -42,9 +45,6 @@ References
    representative volume element for probabilistic micromechanics of fibre-reinforced
    polymers. Acta Materialia 54(13):3471-3484; a cell side of at least 50 fibre radii
    (delta = L/R >= 50) for statistically representative local fields (from memory).
-.. [7] Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003). Determination of the size of
-   the representative volume element for random composites: statistical and numerical
-   approach. Int. J. Solids Struct. 40(13-14):3647-3679 (from memory).
 """
 
 from __future__ import annotations
@@ -63,6 +63,14 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.errors import FractionError, InputError
 from micromech.rve import packing
 from micromech.rve.cellio import CAUTION, csv_text, plot_arrangement, write_atomic
+from micromech.rve.cellstats import (
+    GUIDANCE_DELTA,
+    NeighbourStats,
+    RveGuidance,
+    guidance_fibres,
+    nearest_neighbour_stats,
+    rve_size_guidance,
+)
 from micromech.units import parse_quantity
 
 __all__ = [
@@ -84,6 +92,7 @@ __all__ = [
     "random_cell",
     "nearest_neighbour_stats",
     "rve_size_guidance",
+    "guidance_fibres",
     "plot_arrangement",
 ]
 
@@ -101,9 +110,6 @@ RANDOM_EFFECTIVE_LIMIT: float = 0.78
 RANDOM_SMALL_CELL_LIMIT: float = 0.72
 #: Below this many fibres a random cell uses :data:`RANDOM_SMALL_CELL_LIMIT`.
 SMALL_CELL_FIBRES: int = 20
-#: Cell side in fibre radii for statistically representative fields (Trias et al. 2006,
-#: from memory).
-GUIDANCE_DELTA: float = 50.0
 
 _METHODS = ("square", "hexagonal", "random")
 _MIN_SIDE = 2.5  # random cells: side >= 2.5 (d + gap), so each pair meets once across the faces
@@ -115,88 +121,6 @@ MAX_REGULAR_FIBRES: int = 1_000_000
 
 
 # --- results ---------------------------------------------------------------------------------
-
-
-@dataclass(frozen=True, eq=False)
-class NeighbourStats:
-    """Nearest-neighbour statistics of a periodic fibre arrangement.
-
-    Attributes
-    ----------
-    n_fibres : int
-        Number of fibres in the cell.
-    distance_mean, distance_min, distance_max, distance_std : float
-        Centre distance from each fibre to its nearest neighbour (periodic images included), in
-        fibre diameters.
-    gap_mean, gap_min, gap_std : float
-        The same less one diameter: the clear gap between fibre surfaces, in fibre diameters.
-    distances : ndarray, shape (N,)
-        Nearest-neighbour centre distance of each fibre, m.
-    """
-
-    n_fibres: int
-    distance_mean: float
-    distance_min: float
-    distance_max: float
-    distance_std: float
-    gap_mean: float
-    gap_min: float
-    gap_std: float
-    distances: Array
-
-    def as_dict(self) -> dict[str, Any]:
-        """Return the statistics as a JSON-ready dict (distances and gaps in diameters)."""
-        return {
-            "n_fibres": self.n_fibres,
-            "distance_mean": self.distance_mean,
-            "distance_min": self.distance_min,
-            "distance_max": self.distance_max,
-            "distance_std": self.distance_std,
-            "gap_mean": self.gap_mean,
-            "gap_min": self.gap_min,
-            "gap_std": self.gap_std,
-            "unit": "fibre diameters",
-        }
-
-
-@dataclass(frozen=True)
-class RveGuidance:
-    """Cell size of an arrangement against published guidance on statistical RVE size.
-
-    Attributes
-    ----------
-    delta : float
-        Smaller cell side over the fibre radius, L/R.
-    required_delta : float
-        The guidance, L/R >= 50 (Trias et al. 2006, from memory).
-    verdict : str
-        ``"adequate"``, ``"small"``, or ``"not_applicable"`` for periodic square and hexagonal
-        arrays (their unit cell is exact for the idealised array).
-    fibres_for_guidance : int
-        Number of fibres of a square random cell of side 50 R at the same fraction.
-    message : str
-        One plain sentence for a table.
-    references : tuple of str
-        The sources.
-    """
-
-    delta: float
-    required_delta: float
-    verdict: str
-    fibres_for_guidance: int
-    message: str
-    references: tuple[str, ...]
-
-    def as_dict(self) -> dict[str, Any]:
-        """Return the guidance as a JSON-ready dict."""
-        return {
-            "delta": self.delta,
-            "required_delta": self.required_delta,
-            "verdict": self.verdict,
-            "fibres_for_guidance": self.fibres_for_guidance,
-            "message": self.message,
-            "references": list(self.references),
-        }
 
 
 @dataclass(frozen=True, eq=False)
@@ -646,7 +570,8 @@ def random_cell(
     Cell size: with ``n_fibres`` the square cell side is chosen so the fraction is exact; with
     ``cell_size`` the number of fibres is rounded (the achieved fraction is reported); with
     neither, the cell side is 50 fibre radii (Trias et al. 2006 [6]_, from memory) and the
-    number of fibres is rounded up, the side then set for the exact fraction.
+    number of fibres is rounded up (:func:`~micromech.rve.cellstats.guidance_fibres`), the side
+    then set for the exact fraction.
 
     Parameters
     ----------
@@ -714,7 +639,7 @@ def random_cell(
             f"{what}: a random cell holds at most "
             f"{MAX_RANDOM_FIBRES} fibres, as the packing time grows with the square of the count;"
             " a cell of 50 fibre radii (the size guidance) needs "
-            f"{math.ceil(v * GUIDANCE_DELTA**2 / math.pi)}"
+            f"{int(guidance_fibres(v))}"
         )
     achieved = n * math.pi * d * d / (4.0 * lx * ly)
     _check_limit(achieved, "random", d, g, n)
@@ -755,114 +680,6 @@ def _random_size(
         lx = _length(sides[0], "cell_size", allow_zero=False)
         ly = _length(sides[1], "cell_size", allow_zero=False)
         return max(1, round(v * lx * ly / area)), lx, ly
-    if n_fibres is None:
-        side = GUIDANCE_DELTA * 0.5 * d
-        n = max(1, math.ceil(v * side * side / area))
-    else:
-        n = _count(n_fibres, "n_fibres")
+    n = int(guidance_fibres(v)) if n_fibres is None else _count(n_fibres, "n_fibres")
     side = math.sqrt(n * area / v)
     return n, side, side
-
-
-# --- statistics and guidance ----------------------------------------------------------------
-
-
-def nearest_neighbour_stats(
-    centres: ArrayLike, cell_size: tuple[float, float], diameter: float
-) -> NeighbourStats:
-    """Nearest-neighbour centre distances and gaps of a periodic arrangement.
-
-    The nearest neighbour of a fibre is the closest other fibre or periodic image, its own
-    images included (minimum-image convention in a rectangular cell).
-
-    Parameters
-    ----------
-    centres : array_like, shape (N, 2)
-        Fibre centres, m, inside ``[0, Lx) x [0, Ly)``.
-    cell_size : (float, float)
-        ``(Lx, Ly)``, m.
-    diameter : float
-        Fibre diameter, m.
-
-    Returns
-    -------
-    NeighbourStats
-        Mean, min, max and standard deviation of the distances, and of the gaps (distance less
-        one diameter), in diameters.
-    """
-    from scipy.spatial import cKDTree
-
-    c = np.asarray(centres, dtype=np.float64)
-    if c.ndim != 2 or c.shape[1] != 2 or c.shape[0] < 1:
-        raise InputError(f"centres: shape {c.shape} must be (N, 2) with N >= 1")
-    box = np.asarray(cell_size, dtype=np.float64)
-    if box.shape != (2,) or not np.all(box > 0.0):
-        raise InputError(f"cell_size = {cell_size!r} must be two positive lengths")
-    d = _length(diameter, "diameter", allow_zero=False)
-    c = packing.wrap(c, box)
-    own = float(box.min())
-    if c.shape[0] == 1:
-        nn = np.array([own])
-    else:
-        dist, _ = cKDTree(c, boxsize=box).query(c, k=2)
-        nn = np.minimum(dist[:, 1], own)
-    x = nn / d
-    return NeighbourStats(
-        n_fibres=int(c.shape[0]),
-        distance_mean=float(x.mean()),
-        distance_min=float(x.min()),
-        distance_max=float(x.max()),
-        distance_std=float(x.std()),
-        gap_mean=float(x.mean() - 1.0),
-        gap_min=float(x.min() - 1.0),
-        gap_std=float(x.std()),
-        distances=nn,
-    )
-
-
-def rve_size_guidance(arrangement: FibreArrangement) -> RveGuidance:
-    """Compare the cell size with the published guidance on statistical RVE size.
-
-    For a random arrangement the smaller cell side in fibre radii, ``delta = L/R``, is compared
-    with ``delta >= 50`` (Trias et al. 2006, from memory), the size they found for
-    statistically representative stress and strain fields; smaller cells can still give mean
-    properties when several realisations (seeds) are averaged (Kanit et al. 2003). A periodic
-    square or hexagonal cell is exact for its idealised array, so the guidance does not apply.
-
-    Parameters
-    ----------
-    arrangement : FibreArrangement
-        The cell to judge.
-
-    Returns
-    -------
-    RveGuidance
-        ``delta``, the verdict, the fibre count of a 50 R cell at the same fraction and a
-        message.
-
-    References
-    ----------
-    Trias D, Costa J, Turon A, Hurtado JE (2006), Acta Materialia 54:3471-3484 (from memory);
-    Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003), Int. J. Solids Struct.
-    40:3647-3679 (from memory).
-    """
-    delta = min(arrangement.cell_size) / arrangement.radius
-    n50 = math.ceil(arrangement.volume_fraction * GUIDANCE_DELTA**2 / math.pi)
-    refs = (
-        "Trias D, Costa J, Turon A, Hurtado JE (2006) Acta Materialia 54:3471-3484: "
-        "L/R >= 50 (from memory)",
-        "Kanit T, Forest S, Galliet I, Mounoury V, Jeulin D (2003) Int. J. Solids Struct. "
-        "40:3647-3679: RVE size depends on property, contrast and accepted error (from memory)",
-    )
-    if arrangement.method != "random":
-        verdict = "not_applicable"
-        msg = (f"L/R = {delta:.3g}: a periodic {arrangement.method} cell is exact for the "
-               "idealised array; the statistical size guidance applies to random arrangements")
-    elif delta >= GUIDANCE_DELTA:
-        verdict = "adequate"
-        msg = f"L/R = {delta:.3g} >= {GUIDANCE_DELTA:g}: meets the size guidance (Trias 2006)"
-    else:
-        verdict = "small"
-        msg = (f"L/R = {delta:.3g} < {GUIDANCE_DELTA:g} (Trias 2006): use about {n50} fibres, "
-               "or average several seeds for mean properties (Kanit 2003)")
-    return RveGuidance(delta, GUIDANCE_DELTA, verdict, n50, msg, refs)

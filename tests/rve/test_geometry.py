@@ -1,4 +1,7 @@
-"""Tests of micromech.rve.geometry: regular and random periodic fibre cells, stats, files."""
+"""Tests of micromech.rve.geometry: regular and random periodic fibre cells, limits, files, CLI.
+
+Statistics and the RVE-size guidance are tested in test_cellstats.py.
+"""
 
 from __future__ import annotations
 
@@ -18,7 +21,6 @@ from micromech.rve.geometry import (
     SQUARE_LIMIT,
     FibreArrangement,
     hexagonal_cell,
-    nearest_neighbour_stats,
     packing_limit,
     plot_arrangement,
     random_cell,
@@ -175,7 +177,7 @@ def test_random_cell_circles_cover_the_fraction_on_a_grid() -> None:
 
 def test_random_cell_of_given_size_rounds_the_fibre_count() -> None:
     a = random_cell(0.5, D, cell_size="60 um", seed=1)
-    assert a.n_fibres == round(0.5 * 60e-6**2 / (math.pi * D**2 / 4))  # 37
+    assert a.n_fibres == round(0.5 * 60e-6**2 / (math.pi * D**2 / 4))  # 47
     assert a.volume_fraction == pytest.approx(a.n_fibres * math.pi * D**2 / 4 / 60e-6**2)
     assert a.target_fraction == 0.5
 
@@ -222,34 +224,6 @@ def test_random_cell_of_560_fibres_at_0_70_keeps_every_gap(seed: int) -> None:
     a = random_cell(0.70, D, n_fibres=560, seed=seed)
     assert a.stats.gap_min >= 0.05 - 1e-9
     assert rve_size_guidance(a).verdict == "adequate"
-
-
-# --- statistics and guidance ------------------------------------------------------------------
-
-
-def test_nearest_neighbour_stats_of_two_fibres_by_hand() -> None:
-    # centres 5 apart (3-4-5 triangle) in a 20 x 20 cell, diameter 2: distance 2.5 d, gap 1.5 d
-    s = nearest_neighbour_stats([[1.0, 1.0], [4.0, 5.0]], (20.0, 20.0), 2.0)
-    assert (s.distance_mean, s.distance_min, s.gap_mean, s.distance_std) == pytest.approx(
-        (2.5, 2.5, 1.5, 0.0))
-
-
-def test_nearest_neighbour_stats_use_periodic_images() -> None:
-    # 0.5 and 9.5 on a 10-wide cell are 1 apart across the face
-    s = nearest_neighbour_stats([[0.5, 5.0], [9.5, 5.0]], (10.0, 10.0), 1.0)
-    assert s.distance_max == pytest.approx(1.0)
-    one = nearest_neighbour_stats([[2.0, 3.0]], (6.0, 4.0), 1.0)  # own image at the short side
-    assert one.distance_min == pytest.approx(4.0)
-
-
-def test_guidance_verdicts() -> None:
-    small = random_cell(0.6, D, n_fibres=30, seed=1, shake_sweeps=0)
-    g = rve_size_guidance(small)
-    assert g.verdict == "small" and g.required_delta == 50.0
-    assert g.fibres_for_guidance == math.ceil(0.6 * 2500 / math.pi)  # 478
-    assert g.delta == pytest.approx(min(small.cell_size) / small.radius)
-    assert "Trias" in g.references[0] and "Kanit" in g.references[1]
-    assert rve_size_guidance(hexagonal_cell(0.6, D)).verdict == "not_applicable"
 
 
 # --- files ------------------------------------------------------------------------------------
@@ -432,13 +406,6 @@ def test_unknown_method_and_bad_unit_are_refused(tmp_path: Path) -> None:
         packing_limit("triangular", D)
     with pytest.raises(InputError, match="unit: '0 um' must be a positive length unit"):
         square_cell(0.5, D).to_csv(tmp_path / "c.csv", unit="0 um")
-
-
-def test_stats_refuse_bad_shapes() -> None:
-    with pytest.raises(InputError, match=r"centres: shape \(3,\) must be \(N, 2\)"):
-        nearest_neighbour_stats([1.0, 2.0, 3.0], (5.0, 5.0), 1.0)
-    with pytest.raises(InputError, match="cell_size = .* must be two positive lengths"):
-        nearest_neighbour_stats([[1.0, 2.0]], (5.0, -5.0), 1.0)
 
 
 # --- command line -----------------------------------------------------------------------------
