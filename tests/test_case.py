@@ -506,3 +506,57 @@ def test_stress_strain_columns_accept_strain_without_unit(tmp_path):
     assert lc.strain.unit == "1" and lc.strain.factor == 1.0
     assert lc.lateral[0].kind == "dimensionless" and lc.lateral[0].factor == pytest.approx(0.01)
     assert np.isclose(lc.stress.factor, 1e6)
+
+
+# --- fibre orientation ------------------------------------------------------------------------
+
+RANDOM_MAT = Path(__file__).parent / "data" / "random_mat" / "case.toml"
+
+
+def test_orientation_defaults_to_aligned(tmp_path):
+    assert load_case(write_case(tmp_path, "")).composite.orientation == "aligned"
+
+
+def test_example_random_mat_reads_its_orientation():
+    c = load_case(RANDOM_MAT).composite
+    assert (c.orientation, c.inclusion, c.aspect_ratio, c.volume_fraction) == (
+        "random_in_plane", "spheroid", 80.0, 0.25)
+
+
+def test_weight_fraction_case_keeps_the_orientation(tmp_path):
+    text = '[fibre]\nuse = "e-glass"\n[matrix]\nuse = "epoxy"\n[composite]\n' \
+           'weight_fraction = 0.4\ninclusion = "continuous"\norientation = "random_in_plane"\n'
+    c = load_case(write_case(tmp_path, text, base=False)).composite
+    assert c.orientation == "random_in_plane" and c.weight_fraction == pytest.approx(0.4)
+
+
+ORIENTATION_ERRORS = [
+    ("[composite]\nvolume_fraction = 0.3\norientaton = 'random_3d'\n", CaseFileError,
+     r"case\.toml: \[composite\] unknown key 'orientaton'; did you mean 'orientation'\?"),
+    ("[composite]\nvolume_fraction = 0.3\norientation = 'random-3d'\n", CaseFileError,
+     r"case\.toml: \[composite\] orientation = 'random-3d' is not one of aligned, "
+     r"random_in_plane, random_3d; did you mean 'random_3d'\?"),
+    ("[composite]\nvolume_fraction = 0.3\norientation = 'random_3d'\n", InputError,
+     r"case\.toml: \[composite\] orientation = 'random_3d' is not allowed with inclusion = "
+     r"'continuous' \(rule: random_3d needs inclusion 'spheroid'"),
+    ("[composite]\nvolume_fraction = 0.3\ninclusion = 'sphere'\norientation = "
+     "'random_in_plane'\n", InputError,
+     r"\[composite\] orientation = 'random_in_plane' is not allowed with inclusion = 'sphere'"),
+    ("[composite]\nvolume_fraction = 0.3\ninclusion = 'spheroid'\naspect_ratio = 20\n"
+     "arrangement = 'hexagonal'\norientation = 'random_3d'\n", InputError,
+     r"\[composite\] orientation = 'random_3d' is not allowed with arrangement = 'hexagonal'"),
+]
+
+
+@pytest.mark.parametrize(("text", "error", "match"), ORIENTATION_ERRORS)
+def test_orientation_errors_name_the_table_the_field_and_the_rule(tmp_path, text, error, match):
+    with pytest.raises(error, match=match):
+        load_case(write_case(tmp_path, text))
+
+
+def test_orientation_is_checked_without_a_matrix_too(tmp_path):
+    text = '[fibre]\nuse = "e-glass"\n[composite]\nvolume_fraction = 0.3\n' \
+           'inclusion = "sphere"\norientation = "random_3d"\n'
+    with pytest.raises(InputError, match=r"\[composite\] orientation = 'random_3d' is not "
+                                         r"allowed with inclusion = 'sphere'"):
+        load_case(write_case(tmp_path, text, base=False))

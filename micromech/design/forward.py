@@ -18,7 +18,10 @@ fibres use ``rule_of_mixtures, halpin_tsai, chamis, cylinders, mori_tanaka`` and
 fibre bounds; spheroids use ``halpin_tsai`` (aspect ratio >= 1) and ``mori_tanaka``, spheres
 ``mori_tanaka``, with Willis' spheroid bounds or the isotropic Hashin-Shtrikman bounds for an
 isotropic inclusion. With voids only Mori-Tanaka applies (voids as a third phase) and there are
-no bounds (the lower one is zero); voids also lower the density.
+no bounds (the lower one is zero); voids also lower the density. Randomly oriented fibres
+(``orientation = "random_in_plane"`` or ``"random_3d"``) use the orientation-averaged
+``mori_tanaka`` only; the bounds are the isotropic Hashin-Shtrikman ones for ``random_3d`` of an
+isotropic fibre, none for ``random_in_plane`` (as in ``estimate``).
 
 References
 ----------
@@ -51,6 +54,7 @@ __all__ = [
     "properties_at",
     "forward_model",
     "bound_models",
+    "has_bounds",
     "mass_at",
     "laminate_in_plane",
 ]
@@ -100,12 +104,14 @@ class Constituents:
         The laminate code, for labels.
     name : str
         Label.
+    orientation : {"aligned", "random_in_plane", "random_3d"}
+        Fibre orientation (see :class:`~micromech.materials.Composite`).
 
     Raises
     ------
     InputError
-        For an unknown inclusion, a spheroid without aspect ratio or a packing limit outside
-        (0, 1].
+        For an unknown inclusion, a spheroid without aspect ratio, a packing limit outside
+        (0, 1], or an orientation that does not fit the inclusion.
     FractionError
         For a void fraction outside [0, 1).
     """
@@ -122,6 +128,7 @@ class Constituents:
     ply_thickness: float = 1e-3
     layup: str = ""
     name: str = ""
+    orientation: Literal["aligned", "random_in_plane", "random_3d"] = "aligned"
 
     def __post_init__(self) -> None:
         object.__setattr__(self, "fibre", FibrePhase.from_material(self.fibre))
@@ -131,6 +138,10 @@ class Constituents:
                              "sphere")
         if self.inclusion == "spheroid" and self.aspect_ratio is None:
             raise InputError("aspect_ratio: a spheroid inclusion needs an aspect ratio")
+        if self.orientation != "aligned":
+            from micromech.materials.composite import check_orientation
+
+            check_orientation(self.orientation, self.inclusion)
         if not 0.0 < float(self.packing_limit) <= 1.0:
             raise InputError(f"packing_limit = {self.packing_limit!r} must lie in (0, 1]")
         vv = float(self.void_fraction)
@@ -192,6 +203,7 @@ class Constituents:
             matrix_density=rm, packing_limit=composite.packing_limit, angles=angles,
             ply_thickness=1e-3 if ply_thickness is None else float(ply_thickness),
             layup=layup or "", name=getattr(composite, "name", "") or "",
+            orientation=getattr(composite, "orientation", "aligned"),
         )
 
     @classmethod
@@ -222,6 +234,12 @@ class Constituents:
             comp, layup=None if lam is None else lam.layup,
             ply_thickness=None if lam is None else lam.ply_thickness,
         )
+
+    @property
+    def inclusion_text(self) -> str:
+        """The inclusion shape, with the orientation when it is not aligned (for messages)."""
+        return self.inclusion if self.orientation == "aligned" else \
+            f"{self.inclusion} ({self.orientation})"
 
     @property
     def upper_fraction(self) -> float:
@@ -272,9 +290,9 @@ def applicable_models(c: Constituents) -> tuple[str, ...]:
     Returns
     -------
     tuple of str
-        Subset of :data:`SIZING_MODELS`, in its order.
+        Subset of :data:`SIZING_MODELS`, in its order (randomly oriented fibres: Mori-Tanaka).
     """
-    if c.void_fraction > 0.0:
+    if c.void_fraction > 0.0 or c.orientation != "aligned":
         return ("mori_tanaka",)
     if c.inclusion == "continuous":
         return SIZING_MODELS
@@ -321,14 +339,15 @@ def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
         pair = None if c.void_fraction > 0.0 else _bounds_pair(c, v)
         if pair is None:
             raise InputError(f"model {model!r}: no bounds with voids, nor for {c.inclusion} "
-                             "inclusions of an anisotropic fibre")
+                             "inclusions of an anisotropic fibre, nor for fibres random in "
+                             "plane")
         return pair[0] if model.endswith("lower") else pair[1]
     if model not in applicable_models(c):
-        raise InputError(f"model {model!r} does not apply to {c.inclusion} inclusions; use one "
-                         f"of {', '.join(applicable_models(c))}")
+        raise InputError(f"model {model!r} does not apply to {c.inclusion_text} inclusions; use "
+                         f"one of {', '.join(applicable_models(c))}")
     if model == "mori_tanaka":
         return mori_tanaka(f, m, v, c.inclusion, c.aspect_ratio if c.inclusion == "spheroid"
-                           else None, void_fraction=c.void_fraction)
+                           else None, orientation=c.orientation, void_fraction=c.void_fraction)
     if model == "halpin_tsai":
         return halpin_tsai(f, m, v, aspect_ratio=None if cont else c.aspect_ratio)
     fn: Callable[..., ElasticConstants] = {
@@ -340,6 +359,10 @@ def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:
 def _bounds_pair(c: Constituents, v: Array) -> tuple[ElasticConstants, ElasticConstants] | None:
     from micromech.homogenize import bounds as hb
 
+    if not has_bounds(c):
+        return None
+    if c.orientation == "random_3d":
+        return hb.hashin_shtrikman(c.fibre, c.matrix, v)
     if c.inclusion == "continuous":
         return hb.hashin_shtrikman_fibre(c.fibre, c.matrix, v)
     if not c.fibre.is_isotropic:
@@ -476,9 +499,34 @@ def bound_models(c: Constituents) -> tuple[Callable[[Array], Mapping[str, Array]
     tuple of callable or None
         ``(lower, upper)``.
     """
-    if c.void_fraction > 0.0 or (c.inclusion != "continuous" and not c.fibre.is_isotropic):
+    if c.void_fraction > 0.0 or not has_bounds(c):
         return None
     return forward_model(c, BOUND_MODELS[0]), forward_model(c, BOUND_MODELS[1])
+
+
+def has_bounds(c: Constituents) -> bool:
+    """Whether Hashin-Shtrikman type bounds exist for the inclusion shape and orientation.
+
+    Aligned continuous fibres (Hill 1964, Hashin 1965), aligned spheres and spheroids of an
+    isotropic fibre (Hashin and Shtrikman 1963, Willis 1977), and isotropic fibres random in
+    space (Hashin and Shtrikman 1963: any statistically isotropic composite); not anisotropic
+    particles nor fibres random in plane. Voids are not considered here.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+
+    Returns
+    -------
+    bool
+        True where :data:`BOUND_MODELS` apply (without voids).
+    """
+    if c.orientation == "random_in_plane":
+        return False
+    if c.orientation == "random_3d":
+        return c.fibre.is_isotropic
+    return c.inclusion == "continuous" or c.fibre.is_isotropic
 
 
 def laminate_in_plane(

@@ -144,7 +144,7 @@ def size_fraction(
     for k in chosen:
         if k not in keys:
             hint = (" (bounds are added with bounds=True)" if k in BOUND_MODELS else "")
-            raise InputError(f"models: {k!r} does not apply to {c.inclusion} inclusions; "
+            raise InputError(f"models: {k!r} does not apply to {c.inclusion_text} inclusions; "
                              f"choose from {', '.join(keys)}{hint}")
     fwd = {k: forward_model(c, k) for k in chosen}
     bnd = bound_models(c) if bounds else None

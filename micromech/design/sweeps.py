@@ -39,6 +39,7 @@ from micromech.design.forward import (
     applicable_models,
     estimate_at,
     forward_model,
+    has_bounds,
     laminate_in_plane,
 )
 from micromech.design.inverse import property_values
@@ -200,8 +201,8 @@ def _models(c: Constituents, models: Sequence[str] | None) -> tuple[str, ...]:
     chosen = tuple(keys if models is None else models)
     for k in chosen:
         if k not in keys:
-            raise InputError(f"models: {k!r} does not apply to {c.inclusion} inclusions; choose "
-                             f"from {', '.join(keys)}")
+            raise InputError(f"models: {k!r} does not apply to {c.inclusion_text} inclusions; "
+                             f"choose from {', '.join(keys)}")
     return chosen
 
 
@@ -292,7 +293,7 @@ def _ply_sweep(
     v = np.asarray(vf, dtype=np.float64)
     out = {k: fn(estimate_at(ce, k, v)) for k in chosen}
     bnd = None
-    if bounds and (c.inclusion == "continuous" or c.fibre.is_isotropic):
+    if bounds and has_bounds(c):
         bnd = (fn(estimate_at(ce, BOUND_MODELS[0], v)), fn(estimate_at(ce, BOUND_MODELS[1], v)))
     return out, bnd
 

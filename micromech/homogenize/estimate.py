@@ -20,19 +20,48 @@ mori_tanaka                   always for an isotropic matrix (voids as a third p
 ============================  =========================================================
 
 Where a model does not apply its key is absent and :attr:`Estimates.notes` says why.
+
+Randomly oriented fibres (``composite.orientation``, see :mod:`micromech.materials.composite`):
+results are in the composite's axes. ``random_in_plane``: fibres uniformly distributed over the
+1-2 plane, axis 3 the plate normal, results transversely isotropic about axis 3 (E1 = E2, G13 =
+G23); ``random_3d``: isotropic results.
+
+============================  =========================================================
+key                           random orientations
+============================  =========================================================
+voigt, reuss                  always (Reuss not with voids): the fibre stiffness (Voigt)
+                              or compliance (Reuss) averaged over the orientations, then
+                              mixed with the matrix; rigorous for any arrangement (Hill
+                              1952: uniform strain and uniform stress trial fields)
+hashin_shtrikman_lower/upper  ``random_3d`` of isotropic fibre and matrix, no voids: the
+                              isotropic bounds, rigorous for any statistically isotropic
+                              two-phase composite whatever the inclusion shape (Hashin
+                              and Shtrikman 1963); not for ``random_in_plane`` (the fibre
+                              and spheroid forms assume aligned inclusions) nor for
+                              anisotropic fibres
+mori_tanaka                   the aligned estimate averaged over the orientations
+                              (:func:`~micromech.homogenize.mori_tanaka.mori_tanaka`)
+rule_of_mixtures, halpin_     absent: they assume aligned fibres
+tsai, chamis, cylinders
+============================  =========================================================
+
+The strength estimates of aligned fibres are left out too; the limit-analysis yield bounds (any
+geometry) remain.
 """
 
 from __future__ import annotations
 
 from collections.abc import Iterator, Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
 
+from micromech import tensors
 from micromech.errors import InvalidMaterialError
 from micromech.homogenize import _common as cm
+from micromech.homogenize import walpole as W
 from micromech.homogenize.bounds import (
     REUSS_SOURCE,
     VOIGT_SOURCE,
@@ -45,6 +74,7 @@ from micromech.homogenize.chamis import chamis
 from micromech.homogenize.cylinders import cylinders
 from micromech.homogenize.halpin_tsai import halpin_tsai
 from micromech.homogenize.mori_tanaka import mori_tanaka
+from micromech.homogenize.orientation import average_3d, average_planar
 from micromech.homogenize.rule_of_mixtures import rule_of_mixtures
 from micromech.homogenize.strength import CAUTION, StrengthEstimate, strength_estimates
 from micromech.results import ElasticConstants
@@ -62,6 +92,16 @@ MODEL_KEYS: tuple[str, ...] = (
 BOUND_KEYS: tuple[str, ...] = MODEL_KEYS[:4]
 
 _MODULI = ("E1", "E2", "E3", "G12", "G13", "G23", "k23")
+
+#: Models that assume aligned fibres (absent for random orientations).
+ALIGNED_ONLY: tuple[str, ...] = ("rule_of_mixtures", "halpin_tsai", "chamis", "cylinders")
+#: Random packing of long rods: fraction times aspect ratio about 5.4 (Philipse 1996, from
+#: memory), applied from aspect ratio 10 on (common practice, no source).
+RANDOM_ROD_CONTACT = 5.4
+RANDOM_ROD_MIN_ASPECT = 10.0
+_AVERAGED = "; fibre {what} averaged over the {orientation} orientations"
+_HS_RANDOM = ("; rigorous for any statistically isotropic two-phase composite of isotropic "
+              "phases, whatever the inclusion shape (Hashin & Shtrikman 1963)")
 
 
 @dataclass(frozen=True, eq=False)
@@ -102,8 +142,9 @@ class Estimates(Mapping[str, ElasticConstants]):
 
         Moduli (E1, E2, E3, G12, G13, G23, k23) take the larger of the Reuss and lower
         Hashin-Shtrikman values and the smaller of the Voigt and upper ones; nu12 is bounded
-        for aligned continuous fibres only (Hill 1964), the CTEs for aligned continuous fibres
-        and for spheres (Levin's relation with the bounds on k23 or K, Rosen and Hashin 1970).
+        for aligned continuous fibres only (Hill 1964), the CTEs for aligned continuous fibres,
+        for spheres and for ``random_3d`` isotropic phases (Levin's relation with the bounds on
+        k23 or K, Rosen and Hashin 1970).
 
         Parameters
         ----------
@@ -118,10 +159,14 @@ class Estimates(Mapping[str, ElasticConstants]):
         lows: tuple[str, ...]
         ups: tuple[str, ...]
         inclusion = getattr(self.composite, "inclusion", "")
+        orientation = getattr(self.composite, "orientation", "aligned")
+        aligned = orientation == "aligned"
         if name in _MODULI:
             lows, ups = ("reuss", "hashin_shtrikman_lower"), ("voigt", "hashin_shtrikman_upper")
-        elif (name in ("nu12", "nu13") and inclusion == "continuous") or (
-            name in ("alpha1", "alpha2", "alpha3") and inclusion in ("continuous", "sphere")
+        elif (name in ("nu12", "nu13") and inclusion == "continuous" and aligned) or (
+            name in ("alpha1", "alpha2", "alpha3")
+            and ((aligned and inclusion in ("continuous", "sphere"))
+                 or orientation == "random_3d")
         ):
             lows, ups = ("hashin_shtrikman_lower",), ("hashin_shtrikman_upper",)
         else:
@@ -151,19 +196,140 @@ class Estimates(Mapping[str, ElasticConstants]):
         }
 
 
-def _generic_voigt_reuss(composite: Any, vf: Array, vv: Array) -> dict[str, ElasticConstants]:
+def _orientation_average_6x6(T: Array, orientation: str, compliance: bool = False) -> Array:
+    """Average a Voigt stiffness (or compliance) of a fibre, axis 1, over its orientations.
+
+    In plane: rotations about axis 3 at 16 equally spaced angles (the rotated components are
+    trigonometric polynomials of degree 4, so the mean is the exact average). In space: the
+    isotropic projection ``(J :: T) J + (K :: T) K / 5`` in Mandel form (Walpole 1981, Sec. 5).
+    """
+    if orientation == "random_in_plane":
+        R = tensors.rotation_about_axis(3, np.arange(16) * 22.5)
+        rot = tensors.rotate_compliance if compliance else tensors.rotate_stiffness
+        return np.asarray(np.mean(rot(T[..., None, :, :], R), axis=-3))
+    # Mandel form of a compliance is the Voigt one divided by (m_i m_j), of a stiffness times it
+    M = tensors.from_mandel(T) if compliance else tensors.to_mandel(T)
+    J = np.zeros((6, 6))
+    J[:3, :3] = 1.0 / 3.0
+    K = np.eye(6) - J
+    a = np.einsum("ij,...ij->...", J, M)
+    b = np.einsum("ij,...ij->...", K, M) / 5.0
+    iso = a[..., None, None] * J + b[..., None, None] * K
+    return tensors.to_mandel(iso) if compliance else tensors.from_mandel(iso)
+
+
+def _generic_voigt_reuss(
+    composite: Any, vf: Array, vv: Array, orientation: str = "aligned"
+) -> dict[str, ElasticConstants]:
     """Voigt and Reuss bounds from the constituents' full 6x6 stiffnesses (any anisotropy)."""
     Cf = np.asarray(composite.fibre.stiffness(), dtype=np.float64)
     Cm = np.asarray(composite.matrix.stiffness(), dtype=np.float64)
+    Sf = np.asarray(np.linalg.inv(Cf), dtype=np.float64)
+    vs, rs = VOIGT_SOURCE, REUSS_SOURCE
+    if orientation != "aligned":
+        Cf, Sf = (_orientation_average_6x6(Cf, orientation),
+                  _orientation_average_6x6(Sf, orientation, compliance=True))
+        vs += _AVERAGED.format(what="stiffness", orientation=orientation)
+        rs += _AVERAGED.format(what="compliance", orientation=orientation)
     c = vf[..., None, None]
     c0 = (1.0 - vf - vv)[..., None, None]
-    out = {"voigt": ElasticConstants.from_stiffness(c * Cf + c0 * Cm, model="voigt",
-                                                    source=VOIGT_SOURCE)}
+    out = {"voigt": ElasticConstants.from_stiffness(c * Cf + c0 * Cm, model="voigt", source=vs)}
     if not np.any(vv > 0.0):
-        S = c * np.linalg.inv(Cf) + c0 * np.linalg.inv(Cm)
-        out["reuss"] = ElasticConstants.from_stiffness(np.linalg.inv(S), model="reuss",
-                                                       source=REUSS_SOURCE)
+        S = c * Sf + c0 * np.linalg.inv(Cm)
+        out["reuss"] = ElasticConstants.from_stiffness(np.linalg.inv(S), model="reuss", source=rs)
     return out
+
+
+def _about_normal(S: W.TI, orientation: str, model: str, source: str) -> ElasticConstants:
+    """Constants of a compliance transversely isotropic about the plate normal (axis 3).
+
+    For ``random_3d`` the compliance is isotropic and so are the constants (``extra`` has K, G).
+    """
+    E_in = 2.0 / (S.c + S.g)
+    nu_in = (S.g - S.c) / (S.c + S.g)
+    G_in = 0.5 / S.g
+    if orientation == "random_3d":
+        K = E_in / (3.0 * (1.0 - 2.0 * nu_in))
+        return ElasticConstants(E1=E_in, E2=E_in, E3=E_in, G12=G_in, G13=G_in, G23=G_in,
+                                nu12=nu_in, nu13=nu_in, nu23=nu_in, model=model, source=source,
+                                extra={"K": K, "G": G_in})
+    G_out = 0.5 / S.h
+    nu_io = -S.f / W.SQ2 * E_in
+    return ElasticConstants(E1=E_in, E2=E_in, E3=1.0 / S.d, G12=G_in, G13=G_out, G23=G_out,
+                            nu12=nu_in, nu13=nu_io, nu23=nu_io, model=model, source=source)
+
+
+def _oriented_voigt_reuss(
+    f: Any, m: Any, vf: Array, vv: Array, orientation: str
+) -> tuple[ElasticConstants, ElasticConstants | None]:
+    """Voigt and Reuss bounds of randomly oriented fibres in closed Walpole form.
+
+    Voigt: ``c1 <C1> + c0 C0``; Reuss: ``(c1 <S1> + c0 S0)^-1``, with ``< >`` the orientation
+    average (in plane or in space) of the fibre stiffness or compliance (Hill 1952; averages
+    as in :mod:`.orientation`).
+    """
+    avg = average_3d if orientation == "random_3d" else average_planar
+    C1 = cm.fibre_tensor(f)
+    C0 = cm.matrix_tensor(m)
+    c0 = 1.0 - vf - vv
+    CV = W.add(W.scale(avg(C1), vf), W.scale(C0, c0))
+    voigt = _about_normal(W.inv(CV), orientation, "voigt",
+                          VOIGT_SOURCE + _AVERAGED.format(what="stiffness",
+                                                          orientation=orientation))
+    if np.any(vv > 0.0):
+        return voigt, None
+    SR = W.add(W.scale(avg(W.inv(C1)), vf), W.scale(W.inv(C0), c0))
+    reuss = _about_normal(SR, orientation, "reuss",
+                          REUSS_SOURCE + _AVERAGED.format(what="compliance",
+                                                          orientation=orientation))
+    return voigt, reuss
+
+
+def _random_estimates(
+    f: Any, m: Any, vf: Array, vv: Array, inclusion: str, ar: Any, orientation: str,
+) -> tuple[dict[str, ElasticConstants], dict[str, str]]:
+    """Models and notes for randomly oriented fibres (see the module table)."""
+    models: dict[str, ElasticConstants] = {}
+    notes: dict[str, str] = {}
+    voids = bool(np.any(vv > 0.0))
+    V, R = _oriented_voigt_reuss(f, m, vf, vv, orientation)
+    models["voigt"] = V
+    if R is not None:
+        models["reuss"] = R
+    else:
+        notes["reuss"] = "zero with voids"
+    if voids:
+        why_hs = "not computed with voids (the lower bound is zero)"
+    elif orientation == "random_in_plane":
+        why_hs = ("not for in-plane random fibres: the fibre (Hill 1964, Hashin 1965) and "
+                  "spheroid (Willis 1977) forms assume aligned inclusions and the isotropic form "
+                  "an isotropic composite; the orientation-averaged Voigt and Reuss bounds hold")
+    elif not f.is_isotropic:
+        why_hs = ("random_3d: the isotropic bounds need isotropic fibre and matrix; for "
+                  "anisotropic fibres only the orientation-averaged Voigt and Reuss bounds hold")
+    else:
+        why_hs = ""
+        lo, hi = hashin_shtrikman(f, m, vf)
+        models["hashin_shtrikman_lower"] = replace(lo, source=lo.source + _HS_RANDOM)
+        models["hashin_shtrikman_upper"] = replace(hi, source=hi.source + _HS_RANDOM)
+    if why_hs:
+        notes["hashin_shtrikman_lower"] = notes["hashin_shtrikman_upper"] = why_hs
+    for k in ALIGNED_ONLY:
+        notes[k] = f"assumes aligned fibres; not applied with orientation = {orientation}"
+    if orientation == "random_3d" and ar is not None:
+        rods = np.asarray(ar, dtype=np.float64) >= RANDOM_ROD_MIN_ASPECT
+        limit = RANDOM_ROD_CONTACT / np.asarray(ar, dtype=np.float64)
+        if np.any(rods & (vf > limit)):
+            notes["packing"] = (
+                f"rods of aspect ratio {float(np.max(ar)):g} random in space pack only up to "
+                f"about {RANDOM_ROD_CONTACT:g} / aspect ratio = {float(np.min(limit)):.3g} "
+                "(random contact equation, Philipse 1996, from memory); the fibre fraction "
+                "exceeds it: such a composite cannot be fully random in space")
+    models["mori_tanaka"] = mori_tanaka(
+        f, m, vf, inclusion,  # type: ignore[arg-type]
+        None if inclusion == "continuous" else ar, orientation=orientation,  # type: ignore[arg-type]
+        void_fraction=vv)
+    return models, notes
 
 
 def estimate(
@@ -176,7 +342,8 @@ def estimate(
     ----------
     composite : Composite
         Fibre and matrix materials, fibre volume fraction (scalar or array), inclusion shape,
-        aspect ratio, arrangement and void fraction.
+        aspect ratio, arrangement, void fraction and fibre orientation (``aligned`` along axis
+        1; ``random_in_plane`` in the 1-2 plane, axis 3 the plate normal; ``random_3d``).
     case : str, optional
         Name for the JSON output (default: the composite's name).
     strengths : bool
@@ -187,7 +354,9 @@ def estimate(
     Returns
     -------
     Estimates
-        The results; keys as in the module table.
+        The results; keys as in the module tables, constants in the composite's axes
+        (``random_in_plane``: E1 = E2 in the plane, E3 along the normal; ``random_3d``:
+        isotropic).
 
     Raises
     ------
@@ -199,7 +368,8 @@ def estimate(
     Each result names its model's source in ``source`` (see the model functions): Voigt (1889),
     Reuss (1929), Hill (1952, 1964), Hashin and Shtrikman (1963), Hashin (1965), Willis (1977),
     Halpin and Kardos (1976), Chamis (1983), Hashin and Rosen (1964), Mori and Tanaka (1973),
-    Benveniste (1987), Schapery (1968), Levin (1967).
+    Benveniste (1987), Schapery (1968), Levin (1967); orientation averages: Advani and Tucker
+    (1987), Walpole (1981).
 
     Examples
     --------
@@ -213,6 +383,7 @@ def estimate(
     vv = np.asarray(getattr(composite, "void_fraction", 0.0), dtype=np.float64)
     inclusion = getattr(composite, "inclusion", "continuous")
     ar = getattr(composite, "aspect_ratio", None)
+    orientation = getattr(composite, "orientation", "aligned")
     voids = bool(np.any(vv > 0.0))
     name = case if case is not None else getattr(composite, "name", "")
     models: dict[str, ElasticConstants] = {}
@@ -223,11 +394,20 @@ def estimate(
     except InvalidMaterialError as exc:
         if not (hasattr(composite.fibre, "stiffness") and hasattr(composite.matrix, "stiffness")):
             raise
-        models.update(_generic_voigt_reuss(composite, vf, vv))
+        models.update(_generic_voigt_reuss(composite, vf, vv, orientation))
         for k in MODEL_KEYS[2:]:
             notes[k] = f"needs an isotropic matrix and a transversely isotropic fibre ({exc})"
         st = strength_estimates(composite, misalignment_deg=misalignment_deg) if strengths else {}
-        return Estimates(composite, models, st, notes, name)
+        return Estimates(composite, models, _strengths_for(st, orientation, notes), notes, name)
+
+    if orientation != "aligned":
+        models, notes = _random_estimates(f, m, vf, vv, inclusion, ar, orientation)
+        ordered = {k: models[k] for k in MODEL_KEYS if k in models}
+        st = {}
+        if strengths:
+            st = strength_estimates(composite, elastic=ordered["mori_tanaka"],
+                                    misalignment_deg=misalignment_deg)
+        return Estimates(composite, ordered, _strengths_for(st, orientation, notes), notes, name)
 
     V, R = voigt_reuss(f, m, vf, void_fraction=vv)
     models["voigt"] = V
@@ -274,3 +454,17 @@ def estimate(
         st = strength_estimates(composite, elastic=ordered["mori_tanaka"],
                                 misalignment_deg=misalignment_deg)
     return Estimates(composite, ordered, st, notes, name)
+
+
+def _strengths_for(
+    st: dict[str, StrengthEstimate], orientation: str, notes: dict[str, str]
+) -> dict[str, StrengthEstimate]:
+    """Keep only the strengths that hold for the orientation (noting what was left out)."""
+    if orientation == "aligned":
+        return st
+    kept = {k: v for k, v in st.items() if v.kind != "estimate"}
+    if len(kept) < len(st):
+        notes["strengths"] = (f"the fibre and transverse strength estimates assume aligned "
+                              f"fibres; left out with orientation = {orientation} (the "
+                              "limit-analysis yield bounds hold for any geometry)")
+    return kept

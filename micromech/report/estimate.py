@@ -31,6 +31,36 @@ PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
     ("alpha1", "alpha1", "1e-6/K", 1e6),
     ("alpha2", "alpha2", "1e-6/K", 1e6),
 )
+#: Rows for fibres random in the 1-2 plane (axis 3 the plate normal): in-plane and normal values.
+PLANAR_PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
+    ("E1", "E1 = E2", "GPa", 1e-9),
+    ("E3", "E3", "GPa", 1e-9),
+    ("G12", "G12", "GPa", 1e-9),
+    ("G13", "G13 = G23", "GPa", 1e-9),
+    ("nu12", "nu12", "-", 1.0),
+    ("nu13", "nu13", "-", 1.0),
+    ("alpha1", "alpha1", "1e-6/K", 1e6),
+    ("alpha3", "alpha3", "1e-6/K", 1e6),
+)
+#: Rows for fibres random in space (isotropic results).
+ISOTROPIC_PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
+    ("E1", "E", "GPa", 1e-9),
+    ("G12", "G", "GPa", 1e-9),
+    ("nu12", "nu", "-", 1.0),
+    ("alpha1", "alpha", "1e-6/K", 1e6),
+)
+_ROWS = {"aligned": PROPERTIES, "random_in_plane": PLANAR_PROPERTIES,
+         "random_3d": ISOTROPIC_PROPERTIES}
+_PLOT_DEFAULTS = {
+    "aligned": ("E1", "E2", "G12", "G23", "nu12", "alpha2"),
+    "random_in_plane": ("E1", "E3", "G12", "G13", "nu12", "alpha1"),
+    "random_3d": ("E1", "G12", "nu12", "alpha1"),
+}
+_ORIENTATION_TEXT = {
+    "aligned": "aligned fibres (axis 1)",
+    "random_in_plane": "fibres random in the 1-2 plane (axis 3 normal)",
+    "random_3d": "fibres random in space (isotropic)",
+}
 
 _SHORT = {
     "voigt": "Voigt", "reuss": "Reuss", "hashin_shtrikman_lower": "HS low",
@@ -68,10 +98,13 @@ def estimate_table(est: Estimates) -> str:
     Returns
     -------
     str
-        Property rows; columns ordered lower bounds, estimates, upper bounds; then the strength
-        estimates, the sources, the absent models and the caution.
+        Header with fraction, inclusion and fibre orientation; property rows (for random
+        orientations the in-plane and normal, or isotropic, constants); columns ordered lower
+        bounds, estimates, upper bounds; then the strength estimates, the sources, the absent
+        models, further notes and the caution.
     """
     comp = est.composite
+    orientation = getattr(comp, "orientation", "aligned")
     keys = [k for k in _ORDER if k in est.models]
     vf = np.asarray(comp.volume_fraction)
     head = f"{est.case or 'composite'}: fibre fraction {_fmt(vf, 1.0)}, " \
@@ -81,6 +114,7 @@ def estimate_table(est: Estimates) -> str:
     vv = np.asarray(getattr(comp, "void_fraction", 0.0))
     if np.any(vv > 0):
         head += f", void fraction {_fmt(vv, 1.0)}"
+    head += f", {_ORIENTATION_TEXT.get(orientation, orientation)}"
     lines = [head, ""]
     width = 10
     label_w = 16
@@ -88,7 +122,7 @@ def estimate_table(est: Estimates) -> str:
     kinds = "".ljust(label_w) + "".join(
         ("bound" if k in BOUND_KEYS else "estimate").rjust(width) for k in keys)
     lines += [hdr, kinds, "-" * len(hdr)]
-    for name, label, unit, factor in PROPERTIES:
+    for name, label, unit, factor in _ROWS.get(orientation, PROPERTIES):
         row = f"{label} [{unit}]".ljust(label_w)
         row += "".join(_fmt(est.models[k].get(name), factor).rjust(width) for k in keys)
         lines.append(row)
@@ -100,9 +134,14 @@ def estimate_table(est: Estimates) -> str:
                          f"  {s.source}")
     lines += ["", "sources:"]
     lines += [f"  {_SHORT[k]:<7} {est.models[k].source}" for k in keys]
-    if est.notes:
+    absent = {k: v for k, v in est.notes.items() if k in MODEL_KEYS}
+    other = {k: v for k, v in est.notes.items() if k not in MODEL_KEYS}
+    if absent:
         lines += ["", "not applied:"]
-        lines += [f"  {k}: {v}" for k, v in est.notes.items()]
+        lines += [f"  {k}: {v}" for k, v in absent.items()]
+    if other:
+        lines += ["", "notes:"]
+        lines += [f"  {k}: {v}" for k, v in other.items()]
     lines += ["", f"Caution: {CAUTION}"]
     return "\n".join(lines)
 
@@ -143,7 +182,7 @@ def check_plot_path(path: str | Path, field: str = "path") -> Path:
 
 def plot_estimates(
     est: Estimates, path: str | Path, *, points: int = 101,
-    properties: tuple[str, ...] = ("E1", "E2", "G12", "G23", "nu12", "alpha2"),
+    properties: tuple[str, ...] | None = None,
 ) -> Path:
     """Plot each property against fibre fraction, bounds shaded, the case's fraction marked.
 
@@ -155,8 +194,10 @@ def plot_estimates(
         PNG file to write.
     points : int
         Number of fractions.
-    properties : tuple of str
-        Constants to plot (those no model gives are skipped).
+    properties : tuple of str, optional
+        Constants to plot (those no model gives are skipped); default by fibre orientation:
+        aligned ``E1 E2 G12 G23 nu12 alpha2``, random in plane ``E1 E3 G12 G13 nu12 alpha1``,
+        random in space ``E1 G12 nu12 alpha1``.
 
     Returns
     -------
@@ -175,6 +216,9 @@ def plot_estimates(
     import matplotlib.pyplot as plt
 
     comp = est.composite
+    if properties is None:
+        properties = _PLOT_DEFAULTS.get(getattr(comp, "orientation", "aligned"),
+                                        _PLOT_DEFAULTS["aligned"])
     limit = float(getattr(comp, "packing_limit", 1.0))
     vv = float(np.max(np.asarray(getattr(comp, "void_fraction", 0.0))))
     top = min(limit, 1.0 - vv)

@@ -1,9 +1,8 @@
-"""Read RVE output histories: delimited text into tables, tables into stress-strain curves.
+"""Turn RVE history tables into stress-strain curves of the six load cases.
 
-A history file is delimited text: comma, tab, semicolon or whitespace (sniffed unless given),
-with or without a header line, with comment lines that start with ``#`` or ``%`` and with blank
-lines anywhere. Columns are named (header) or numbered from 1. The file is only read, never
-changed, and the arrays handed out are read-only.
+The tables come from :func:`micromech.rve.tables.read_table` (re-exported here with
+:class:`~micromech.rve.tables.Table`); this module applies the column units and the RVE
+geometry.
 
 Load cases and conventions
 --------------------------
@@ -32,7 +31,6 @@ read the Poisson ratios nu_ij = -eps_j / eps_i.
 from __future__ import annotations
 
 import math
-import warnings
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from functools import lru_cache
@@ -44,6 +42,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import DataFileError, InputError, MicromechError, UnitError
+from micromech.rve.tables import MIN_ROWS, Array, Table, read_table
 from micromech.units import parse_quantity, unit_factor
 
 __all__ = [
@@ -59,8 +58,6 @@ __all__ = [
     "load_curve",
 ]
 
-Array = NDArray[np.float64]
-
 NORMAL_DIRECTIONS: tuple[str, ...] = ("x", "y", "z")
 SHEAR_DIRECTIONS: tuple[str, ...] = ("xy", "yz", "xz")
 #: The six load cases: three normal, three shear.
@@ -72,472 +69,6 @@ DIRECTIONS: tuple[str, ...] = NORMAL_DIRECTIONS + SHEAR_DIRECTIONS
 ColumnRef = tuple[str | int, str | None] | Mapping[str, Any] | Any
 
 _AXIS = {"x": 0, "y": 1, "z": 2}
-_MIN_ROWS = 3
-_SNIFF_LINES = 25
-_DELIMITER_NAMES = {",": "comma", ";": "semicolon", "\t": "tab", " ": "whitespace"}
-
-
-# ------------------------------------------------------------------------------------------
-# tables
-
-
-@dataclass(frozen=True, eq=False)
-class Table:
-    r"""A numeric table read from a delimited text file.
-
-    Cells that are not numbers are stored as NaN and remembered in :attr:`bad_cells`; the error
-    is raised only when such a column is asked for, so a text column that is never used does
-    not stop the reading.
-
-    Attributes
-    ----------
-    path : str
-        The file read.
-    header : tuple of str
-        Column names from the header line; empty when the file has no header.
-    data : ndarray, shape (rows, columns)
-        The values, read-only; NaN where a cell is not a number.
-    lines : ndarray of int, shape (rows,)
-        The 1-based line number in the file of each row.
-    delimiter : str
-        The delimiter used: ``","``, ``";"``, ``"\t"`` or ``" "`` (any run of whitespace).
-    header_line : int or None
-        Line number of the header, None without one.
-    bad_cells : Mapping of int to (int, str)
-        For each 0-based column with a cell that is not a number: the line and text of the
-        first such cell.
-    units : tuple of str
-        A row of units right under the header (every cell text, e.g. ``s, N, mm``), else empty.
-    units_line : int or None
-        Line number of that row.
-    """
-
-    path: str
-    header: tuple[str, ...]
-    data: Array
-    lines: NDArray[np.int64]
-    delimiter: str
-    header_line: int | None = None
-    bad_cells: Mapping[int, tuple[int, str]] = field(default_factory=dict)
-    units: tuple[str, ...] = ()
-    units_line: int | None = None
-
-    @property
-    def n_rows(self) -> int:
-        """Number of data rows."""
-        return int(self.data.shape[0])
-
-    @property
-    def n_columns(self) -> int:
-        """Number of columns."""
-        return int(self.data.shape[1])
-
-    @property
-    def names(self) -> tuple[str, ...]:
-        """Column names: the header, or ``"1"``, ``"2"``, ... without one."""
-        if self.header:
-            return self.header
-        return tuple(str(i + 1) for i in range(self.n_columns))
-
-    @property
-    def columns(self) -> Mapping[str, Array]:
-        """Columns by name (first of duplicate names wins), read-only views, NaN where bad."""
-        out: dict[str, Array] = {}
-        for i, name in enumerate(self.names):
-            out.setdefault(name, self.data[:, i])
-        return MappingProxyType(out)
-
-    def index(self, column: str | int, role: str = "column") -> int:
-        """Return the 0-based index of a column given by name or by 1-based number.
-
-        Parameters
-        ----------
-        column : str or int
-            Header name (exact, else case- and space-insensitive) or 1-based column number
-            (an int or a string of digits that is not a header name).
-        role : str
-            What the column is for (``"force column"``), used in error messages.
-
-        Returns
-        -------
-        int
-            The 0-based index.
-
-        Raises
-        ------
-        DataFileError
-            If the column does not exist or its name is ambiguous.
-        """
-        names = self.names
-        if isinstance(column, bool) or not isinstance(column, str | int):
-            raise DataFileError(
-                f"{self.path}: {role} must be a column name or a 1-based column number, "
-                f"got {column!r}"
-            )
-        if isinstance(column, str):
-            hits = [i for i, n in enumerate(names) if n == column]
-            if not hits:
-                key = _fold(column)
-                hits = [i for i, n in enumerate(names) if _fold(n) == key]
-            if len(hits) > 1:
-                raise DataFileError(
-                    f"{self.path}, line {self.header_line}: {role} {column!r} names columns "
-                    f"{', '.join(str(h + 1) for h in hits)}; give the column number instead"
-                )
-            if hits:
-                return hits[0]
-            if not column.strip().isdigit():
-                where = f", line {self.header_line}" if self.header_line else ""
-                listed = ", ".join(repr(n) for n in names) if self.header else "none (no header)"
-                raise DataFileError(
-                    f"{self.path}{where}: {role} {column!r} does not exist; column names are "
-                    f"{listed}"
-                )
-            column = int(column.strip())
-        if not 1 <= column <= self.n_columns:
-            raise DataFileError(
-                f"{self.path}: {role} number {column} does not exist; the file has "
-                f"{self.n_columns} column(s), numbered from 1"
-            )
-        return column - 1
-
-    def column(self, column: str | int, role: str = "column") -> Array:
-        """Return one column as a read-only float array, checked to be all finite numbers.
-
-        Parameters
-        ----------
-        column : str or int
-            Header name or 1-based number (see :meth:`index`).
-        role : str
-            What the column is for, used in error messages.
-
-        Returns
-        -------
-        ndarray, shape (rows,)
-            The values as written in the file (no unit applied).
-
-        Raises
-        ------
-        DataFileError
-            Naming the file, line and column of the first cell that is text, empty, NaN or
-            infinite, or when the column does not exist.
-        """
-        j = self.index(column, role)
-        label = f"column {j + 1}" + (f" ({self.names[j]!r})" if self.header else "")
-        if j in self.bad_cells:
-            line, text = self.bad_cells[j]
-            hint = ""
-            if "," in text and self.delimiter != ",":
-                hint = " (a decimal comma? use '.' as the decimal mark)"
-            what = "an empty cell" if not text.strip() else f"{text.strip()!r} is not a number"
-            raise DataFileError(f"{self.path}, line {line}, {label}: {what}{hint}")
-        values = self.data[:, j]
-        finite = np.isfinite(values)
-        if not finite.all():
-            r = int(np.argmin(finite))
-            raise DataFileError(
-                f"{self.path}, line {int(self.lines[r])}, {label}: value "
-                f"{float(values[r])!r} is not a finite number"
-            )
-        return values
-
-
-def _fold(name: str) -> str:
-    return "".join(name.split()).lower()
-
-
-def read_table(
-    path: str | Path, *, delimiter: str | None = None, comment: str = "#%", skip_rows: int = 0
-) -> Table:
-    r"""Read a delimited text file of numbers into a :class:`Table`.
-
-    Parameters
-    ----------
-    path : str or Path
-        The file (read only, never changed). UTF-8, with or without a byte-order mark.
-    delimiter : str, optional
-        ``","``, ``";"``, ``"\t"``, or ``" "`` / ``"whitespace"`` for runs of blanks (also by
-        name: ``"comma"``, ``"semicolon"``, ``"tab"``). Sniffed
-        when None: the first of tab, semicolon, comma that occurs on every one of the first 25
-        lines wins, else whitespace.
-    comment : str
-        Characters that start a comment line (after optional leading blanks). Blank lines are
-        skipped too.
-    skip_rows : int
-        Lines at the top of the file to skip unread (a preamble), before the header.
-
-    Returns
-    -------
-    Table
-        The table. The first non-comment line is a header when any of its cells is not a
-        number; a line right under it with no number in any cell is a row of units.
-
-    Raises
-    ------
-    DataFileError
-        If the file cannot be read or decoded, a row has a different number of cells than the
-        first, or there are fewer than 3 data rows.
-    InputError
-        If ``delimiter`` is not one of the accepted ones, or ``skip_rows`` is negative.
-
-    Examples
-    --------
-    >>> import tempfile, os
-    >>> p = os.path.join(tempfile.mkdtemp(), "h.csv")
-    >>> _ = open(p, "w").write("# invented\ndisp,force\n0,0\n1,2\n2,4\n")
-    >>> t = read_table(p)
-    >>> t.header, t.column("force").tolist(), t.lines.tolist()
-    (('disp', 'force'), [0.0, 2.0, 4.0], [3, 4, 5])
-    """
-    name = str(path)
-    delim = _check_delimiter(delimiter)
-    if isinstance(skip_rows, bool) or not isinstance(skip_rows, int) or skip_rows < 0:
-        raise InputError(f"skip_rows: expected a whole number >= 0, got {skip_rows!r}")
-    try:
-        raw = Path(path).read_bytes()
-    except OSError as exc:
-        raise DataFileError(f"{name}: cannot read the file ({exc.strerror or exc})") from None
-    if raw.startswith(b"\xef\xbb\xbf"):
-        raw = raw[3:]
-    fast = _read_regular(raw, delim, comment, skip_rows)
-    if fast is not None:
-        f_header, f_header_line, f_data, f_lines, f_delim = fast
-        f_data.flags.writeable = False
-        f_lines.flags.writeable = False
-        return Table(
-            path=name, header=f_header, data=f_data, lines=f_lines, delimiter=f_delim,
-            header_line=f_header_line, bad_cells=MappingProxyType({}),
-        )
-    try:
-        text = raw.decode("utf-8")
-    except UnicodeDecodeError as exc:
-        line = raw.count(b"\n", 0, exc.start) + 1
-        raise DataFileError(
-            f"{name}, line {line}: not UTF-8 text (byte {raw[exc.start]:#04x} at offset "
-            f"{exc.start})"
-        ) from None
-    if "\r" in text:
-        text = text.replace("\r\n", "\n").replace("\r", "\n")
-    all_lines = text.split("\n")
-    comment_chars = tuple(comment)
-    keep = [
-        i for i, s in enumerate(all_lines[skip_rows:], start=skip_rows)
-        if s.strip() and not s.lstrip().startswith(comment_chars)
-    ]
-    if not keep:
-        raise DataFileError(f"{name}: no data rows (only blank or comment lines)")
-    lines = [all_lines[i] for i in keep]
-    numbers = np.asarray(keep, dtype=np.int64) + 1
-    if delim is None:
-        delim = _sniff(lines[:_SNIFF_LINES])
-    first = _split(lines[0], delim)
-    first_line = int(numbers[0])
-    header: tuple[str, ...] = ()
-    header_line: int | None = None
-    units: tuple[str, ...] = ()
-    units_line: int | None = None
-    if not all(_is_number(c) for c in first):
-        header = tuple(c.strip().strip('"').strip("'").strip() for c in first)
-        header_line = int(numbers[0])
-        lines = lines[1:]
-        numbers = numbers[1:]
-        below = _split(lines[0], delim) if lines else []
-        if len(below) == len(first) and not any(_is_number(c) for c in below):
-            units = tuple(c.strip().strip('"').strip("'").strip() for c in below)
-            units_line = int(numbers[0])
-            lines = lines[1:]
-            numbers = numbers[1:]
-    n_cols = len(first)
-    if len(lines) < _MIN_ROWS:
-        raise DataFileError(
-            f"{name}: {len(lines)} data row(s); at least {_MIN_ROWS} are needed for a curve"
-        )
-    parsed = _parse_fast(lines, delim, n_cols)
-    bad: dict[int, tuple[int, str]] = {}
-    if parsed is None:
-        data, bad = _parse_slow(name, lines, numbers, delim, n_cols, first_line)
-    else:
-        data = parsed
-    data.flags.writeable = False
-    numbers.flags.writeable = False
-    return Table(
-        path=name, header=header, data=data, lines=numbers, delimiter=delim,
-        header_line=header_line, bad_cells=MappingProxyType(bad), units=units,
-        units_line=units_line,
-    )
-
-
-_MAX_LEAD = 64  # leading blanks scanned per line before the line-by-line reader takes over
-
-
-def _read_regular(
-    raw: bytes, delim: str | None, comment: str, skip_rows: int
-) -> tuple[tuple[str, ...], int | None, Array, NDArray[np.int64], str] | None:
-    """Read a regular file with vectorised line scans; None to use the line-by-line path.
-
-    Classifies every line (blank, comment, data) and counts its cells from the byte positions
-    of line breaks and delimiters, then parses all numbers in one call. Anything irregular (a
-    control character, a non-ASCII character outside comment lines, a ragged row, a cell that
-    is not a number, fewer than 3 rows) returns None, and the line-by-line reader then finds and
-    reports it, so both paths accept and reject exactly the same files.
-    """
-    if b"\r" in raw:
-        raw = raw.replace(b"\r\n", b"\n").replace(b"\r", b"\n")
-    a = np.frombuffer(raw, dtype=np.uint8)
-    if a.size == 0 or np.any((a < 9) | ((a > 13) & (a < 28))):
-        return None
-    # from here on, a byte <= 32 is exactly a character for which str.isspace() holds
-    nl = np.flatnonzero(a == 10)
-    starts = np.concatenate(([0], nl + 1))
-    ends = np.concatenate((nl, [a.size]))
-    lead = starts.copy()  # first non-blank character of each line (or its end)
-    for _ in range(_MAX_LEAD):
-        open_ = lead < ends
-        step = np.zeros(lead.size, dtype=bool)
-        step[open_] = a[lead[open_]] <= 32
-        if not step.any():
-            break
-        lead[step] += 1
-    else:
-        return None
-    blank = lead >= ends
-    first_char = a[np.minimum(lead, a.size - 1)]
-    marks = np.frombuffer(comment.encode("ascii", "ignore"), dtype=np.uint8)
-    is_comment = ~blank & np.isin(first_char, marks)
-    keep = ~blank & ~is_comment
-    keep[:skip_rows] = False
-    high = np.flatnonzero(a >= 128)
-    if high.size:  # non-ASCII text is fine in comment lines and skipped lines only
-        line_of = np.searchsorted(starts, high, side="right") - 1
-        if not np.all(is_comment[line_of] | (line_of < skip_rows)):
-            return None
-        try:
-            raw.decode("utf-8")
-        except UnicodeDecodeError:
-            return None
-    kept = np.flatnonzero(keep)
-    if kept.size == 0:
-        return None
-    sample = [raw[starts[i] : ends[i]].decode("ascii") for i in kept[:_SNIFF_LINES]]
-    d = delim if delim is not None else _sniff(sample)
-    first = _split(sample[0], d)
-    header: tuple[str, ...] = ()
-    header_line: int | None = None
-    rows = kept
-    if not all(_is_number(c) for c in first):
-        header = tuple(c.strip().strip('"').strip("'").strip() for c in first)
-        header_line = int(kept[0]) + 1
-        rows = kept[1:]
-    n_cols = len(first)
-    if rows.size < _MIN_ROWS:
-        return None
-    if d == " ":
-        space = a <= 32
-        marks_at = np.flatnonzero(~space[1:] & space[:-1]) + 1  # starts of blank-separated cells
-        if a[0] > 32:
-            marks_at = np.concatenate(([0], marks_at))
-        want = n_cols
-    else:
-        marks_at = np.flatnonzero(a == ord(d))
-        want = n_cols - 1
-    counts = np.searchsorted(marks_at, ends[rows]) - np.searchsorted(marks_at, starts[rows])
-    if np.any(counts != want):
-        return None
-    if np.all(np.diff(rows) == 1):
-        body = raw[starts[rows[0]] : ends[rows[-1]]]
-    else:
-        body = b"\n".join(raw[starts[i] : ends[i]] for i in rows)
-    if d != " ":
-        body = body.replace(b"\n", d.encode("ascii"))
-    try:
-        with warnings.catch_warnings():
-            warnings.simplefilter("error")
-            flat = np.fromstring(body.decode("ascii"), dtype=np.float64, sep=d)
-    except (ValueError, DeprecationWarning):
-        return None
-    if flat.size != rows.size * n_cols:
-        return None
-    return header, header_line, flat.reshape(rows.size, n_cols), rows.astype(np.int64) + 1, d
-
-
-def _check_delimiter(delimiter: str | None) -> str | None:
-    if delimiter is None:
-        return None
-    named = {"comma": ",", "semicolon": ";", "tab": "\t", "whitespace": " ", "space": " "}
-    if isinstance(delimiter, str):
-        d = named.get(delimiter.strip().lower(), delimiter)
-        if d in (",", ";", "\t", " "):
-            return d
-    raise InputError(
-        f"delimiter: expected ',', ';', '\\t' (or comma, semicolon, tab), ' ' or 'whitespace', "
-        f"or None to detect it; got {delimiter!r}"
-    )
-
-
-def _sniff(sample: Sequence[str]) -> str:
-    for d in ("\t", ";", ","):
-        if all(d in s for s in sample):
-            return d
-    return " "
-
-
-def _split(line: str, delim: str) -> list[str]:
-    return line.split() if delim == " " else line.split(delim)
-
-
-def _is_number(cell: str) -> bool:
-    try:
-        float(cell)
-    except ValueError:
-        return False
-    return True
-
-
-def _parse_fast(lines: list[str], delim: str, n_cols: int) -> Array | None:
-    """Parse with numpy's C reader; None when anything is irregular (the slow path explains)."""
-    if delim == " ":
-        if any(len(s.split()) != n_cols for s in lines):
-            return None
-        body = " ".join(lines)
-    else:
-        if any(s.count(delim) != n_cols - 1 for s in lines):
-            return None
-        body = delim.join(lines)
-    try:
-        with warnings.catch_warnings():
-            warnings.simplefilter("error")
-            flat = np.fromstring(body, dtype=np.float64, sep=delim)
-    except (ValueError, DeprecationWarning):
-        return None
-    if flat.size != len(lines) * n_cols:
-        return None
-    return flat.reshape(len(lines), n_cols)
-
-
-def _parse_slow(
-    name: str, lines: list[str], numbers: NDArray[np.int64], delim: str, n_cols: int,
-    first_line: int,
-) -> tuple[Array, dict[int, tuple[int, str]]]:
-    data = np.full((len(lines), n_cols), np.nan)
-    bad: dict[int, tuple[int, str]] = {}
-    for r, s in enumerate(lines):
-        cells = _split(s, delim)
-        if len(cells) != n_cols:
-            raise DataFileError(
-                f"{name}, line {int(numbers[r])}: {len(cells)} cell(s) where line {first_line} "
-                f"has {n_cols} (delimiter: {_DELIMITER_NAMES[delim]})"
-            )
-        for j, c in enumerate(cells):
-            try:
-                data[r, j] = float(c)
-            except ValueError:
-                if j not in bad:
-                    bad[j] = (int(numbers[r]), c)
-    return data, bad
-
-
-# ------------------------------------------------------------------------------------------
-# curves
 
 
 @dataclass(frozen=True, eq=False)
@@ -569,11 +100,7 @@ class Curve:
 
     def __post_init__(self) -> None:
         label = self.source or "curve"
-        if self.direction not in DIRECTIONS:
-            raise InputError(
-                f"{label}: direction must be one of {', '.join(DIRECTIONS)}, got "
-                f"{self.direction!r}"
-            )
+        _check_direction(self.direction, label)
         strain = _frozen_1d(self.strain, f"{label}: strain")
         stress = _frozen_1d(self.stress, f"{label}: stress")
         if strain.shape != stress.shape:
@@ -616,11 +143,10 @@ def _frozen_1d(values: ArrayLike, label: str) -> Array:
         raise InputError(f"{label}: expected an array of numbers") from None
     if arr.ndim != 1:
         raise InputError(f"{label}: expected a 1-D array, got shape {arr.shape}")
-    if arr.size < _MIN_ROWS:
-        raise InputError(f"{label}: {arr.size} point(s); at least {_MIN_ROWS} are needed")
-    finite = np.isfinite(arr)
-    if not finite.all():
-        i = int(np.argmin(finite))
+    if arr.size < MIN_ROWS:
+        raise InputError(f"{label}: {arr.size} point(s); at least {MIN_ROWS} are needed")
+    i = _first_nonfinite(arr)
+    if i is not None:
         raise InputError(f"{label}: point {i} is {float(arr[i])!r}; every value must be finite")
     arr.flags.writeable = False
     return arr
@@ -667,9 +193,9 @@ def _factor(unit: Any, kind: str, field: str) -> float:
 @lru_cache(maxsize=64)
 def _cached_factor(unit: str | None, kind: str, field: str) -> float:
     if kind == "dimensionless":
-        if unit is None or unit.strip() in ("", "1", "-", "m/m", "mm/mm"):
+        if unit is None or unit.strip() in _UNIT_FREE:
             return 1.0
-        if unit.strip() in ("%", "percent"):
+        if unit.strip() in _PERCENT:
             return 0.01
         raise UnitError(
             f"{field}: strain unit must be empty, '1', '-' or '%', got {unit!r}"
@@ -705,6 +231,36 @@ def _unit(table: Table, column: str | int, unit: Any, kind: str, role: str) -> f
 _EXAMPLE_UNITS = {"force": "'N' or 'mN'", "length": "'mm' or 'um'", "pressure": "'MPa'"}
 
 
+def _values(table: Table, column: str | int, unit: Any, kind: str, role: str) -> Array:
+    """Return a column in SI: its values times the SI factor of its unit (inf on overflow)."""
+    values = table.column(column, f"{role} column")
+    factor = _unit(table, column, unit, kind, role)
+    with np.errstate(over="ignore"):
+        return values * factor
+
+
+def _lateral_strains(
+    table: Table, direction: str, lateral: Any, size: Array | None
+) -> dict[str, Array]:
+    """Lateral strains by axis, from strain columns or, given the RVE size, displacements.
+
+    With ``size`` a column with a length unit (or none) holds the displacement u_j, strain
+    u_j / L_j, and one with a strain unit the strain itself; without ``size`` every lateral
+    column holds a strain.
+    """
+    lat: dict[str, Array] = {}
+    for axis, spec in _lateral_items(lateral, table.path):
+        _check_lateral_axis(direction, axis, table.path)
+        role = f"lateral {axis}"
+        col, unit = _spec(spec, role)
+        if size is None or (unit is not None and _is_strain_unit(unit)):
+            lat[axis] = _values(table, col, unit, "dimensionless", role)
+        else:
+            with np.errstate(over="ignore"):
+                lat[axis] = _values(table, col, unit, "length", role) / size[_AXIS[axis]]
+    return lat
+
+
 def _lateral_items(lateral: Any, label: str) -> list[tuple[str, Any]]:
     """Lateral columns as (axis, spec) pairs from a mapping or from objects with .direction."""
     if lateral is None:
@@ -727,7 +283,9 @@ def _is_strain_unit(unit: Any) -> bool:
     return unit is None or (isinstance(unit, str) and unit.strip() in _STRAIN_UNITS)
 
 
-_STRAIN_UNITS = ("", "1", "-", "m/m", "mm/mm", "%", "percent")
+_UNIT_FREE = ("", "1", "-", "m/m", "mm/mm")
+_PERCENT = ("%", "percent")
+_STRAIN_UNITS = _UNIT_FREE + _PERCENT
 
 
 def _check_size(size_xyz: ArrayLike) -> Array:
@@ -755,10 +313,15 @@ def _case_geometry(direction: str, size: Array) -> tuple[float, float]:
     return float(size[i] * size[k]), float(size[j])
 
 
-def _check_finite(table: Table, values: Array, what: str) -> None:
+def _first_nonfinite(values: Array) -> int | None:
+    """Index of the first NaN or infinite value, None when all are finite."""
     finite = np.isfinite(values)
-    if not finite.all():
-        r = int(np.argmin(finite))
+    return None if finite.all() else int(np.argmin(finite))
+
+
+def _check_finite(table: Table, values: Array, what: str) -> None:
+    r = _first_nonfinite(values)
+    if r is not None:
         raise DataFileError(
             f"{table.path}, line {int(table.lines[r])}: {what} overflows to {float(values[r])!r}"
         )
@@ -818,20 +381,9 @@ def history_to_curve(
     area, gauge = _case_geometry(direction, size)
     fcol, funit = _spec(force, "force")
     dcol, dunit = _spec(displacement, "displacement")
-    f = table.column(fcol, "force column") * _unit(table, fcol, funit, "force", "force")
-    u = table.column(dcol, "displacement column") * _unit(table, dcol, dunit, "length",
-                                                          "displacement")
-    lat: dict[str, Array] = {}
-    for axis, spec in _lateral_items(lateral, table.path):
-        _check_lateral_axis(direction, axis, table.path)
-        col, unit = _spec(spec, f"lateral {axis}")
-        values = table.column(col, f"lateral {axis} column")
-        if unit is not None and _is_strain_unit(unit):  # lateral strain given directly
-            lat[axis] = values * _unit(table, col, unit, "dimensionless", f"lateral {axis}")
-        else:
-            unit_si = _unit(table, col, unit, "length", f"lateral {axis}")
-            with np.errstate(over="ignore"):
-                lat[axis] = values * unit_si / size[_AXIS[axis]]
+    f = _values(table, fcol, funit, "force", "force")
+    u = _values(table, dcol, dunit, "length", "displacement")
+    lat = _lateral_strains(table, direction, lateral, size)
     with np.errstate(over="ignore"):
         strain, stress = u / gauge, f / area
     _check_finite(table, stress, "stress (force / area)")
@@ -885,18 +437,9 @@ def curve_from_columns(
     _check_direction(direction, table.path)
     scol, sunit = _spec(stress, "stress")
     ecol, eunit = _spec(strain, "strain")
-    with np.errstate(over="ignore"):
-        sig = table.column(scol, "stress column") * _unit(table, scol, sunit, "pressure",
-                                                           "stress")
-    eps = table.column(ecol, "strain column") * _unit(table, ecol, eunit, "dimensionless",
-                                                       "strain")
-    lat: dict[str, Array] = {}
-    for axis, spec in _lateral_items(lateral, table.path):
-        _check_lateral_axis(direction, axis, table.path)
-        col, unit = _spec(spec, f"lateral {axis}")
-        lat[axis] = table.column(col, f"lateral {axis} column") * _unit(
-            table, col, unit, "dimensionless", f"lateral {axis}"
-        )
+    sig = _values(table, scol, sunit, "pressure", "stress")
+    eps = _values(table, ecol, eunit, "dimensionless", "strain")
+    lat = _lateral_strains(table, direction, lateral, None)
     _check_finite(table, sig, "stress")
     return Curve(direction=direction, strain=eps, stress=sig, lateral=lat, source=table.path,
                  lines=table.lines)

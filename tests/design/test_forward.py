@@ -184,3 +184,47 @@ def test_invariant_form_equals_the_laminate_package_for_random_stacks(bending):
         got = laminate_in_plane(**ply, angles=angles, thicknesses=t, bending=bending)
         for k in ("Ex", "Ey", "Gxy", "nuxy"):
             assert float(got[k]) == pytest.approx(getattr(ref, k), rel=1e-9, abs=1e-12)
+
+
+# --- fibre orientation ------------------------------------------------------------------------
+
+
+def test_constituents_from_a_composite_carry_the_orientation(glass, resin):
+    comp = Composite(glass, resin, 0.3, inclusion="spheroid", aspect_ratio=30.0,
+                     orientation="random_3d")
+    c = Constituents.from_composite(comp)
+    assert c.orientation == "random_3d" and c.inclusion_text == "spheroid (random_3d)"
+    assert Constituents.from_composite(Composite(glass, resin, 0.3)).orientation == "aligned"
+
+
+@pytest.mark.parametrize("orientation", ["random_in_plane", "random_3d"])
+@pytest.mark.parametrize("fibre", ["glass", "carbon"])
+def test_random_orientations_use_the_models_estimate_returns(glass, carbon, resin, orientation,
+                                                             fibre):
+    f = {"glass": glass, "carbon": carbon}[fibre]
+    comp = Composite(f, resin, 0.3, inclusion="spheroid", aspect_ratio=30.0,
+                     orientation=orientation)
+    c = Constituents.from_composite(comp)
+    est = estimate(comp, strengths=False)
+    assert applicable_models(c) == ("mori_tanaka",)
+    for k in ("mori_tanaka", "hashin_shtrikman_lower", "hashin_shtrikman_upper"):
+        if k in est:  # same values as estimate(), exactly
+            for name in ("E1", "E3", "G12", "G13"):
+                assert float(estimate_at(c, k, 0.3).get(name)) == float(est[k].get(name))
+    assert (bound_models(c) is not None) == ("hashin_shtrikman_lower" in est)
+
+
+def test_bounds_of_fibres_random_in_plane_are_an_error(glass, resin):
+    c = Constituents(glass, resin, "continuous", orientation="random_in_plane")
+    with pytest.raises(InputError, match="no bounds .*nor for fibres random in plane"):
+        estimate_at(c, "hashin_shtrikman_upper", 0.3)
+    with pytest.raises(InputError, match=r"model 'halpin_tsai' does not apply to continuous "
+                                         r"\(random_in_plane\) inclusions; use one of "
+                                         r"mori_tanaka"):
+        estimate_at(c, "halpin_tsai", 0.3)
+
+
+def test_orientation_that_does_not_fit_the_constituents_is_an_error(glass, resin):
+    with pytest.raises(InputError, match=r"orientation = 'random_3d' is not allowed with "
+                                         r"inclusion = 'sphere'"):
+        Constituents(glass, resin, "sphere", orientation="random_3d")

@@ -168,3 +168,28 @@ def test_design_of_the_wrong_type_is_an_error():
 def test_layup_replaces_that_of_constituents(glass_epoxy):
     c = as_constituents(as_constituents(glass_epoxy), layup="[0]")
     assert c.angles == (0.0,)
+
+
+# --- fibre orientation ------------------------------------------------------------------------
+
+
+def test_random_mat_is_sized_with_the_averaged_mori_tanaka_and_no_bounds(glass, resin):
+    comp = Composite(glass, resin, 0.3, inclusion="spheroid", aspect_ratio=50.0,
+                     orientation="random_in_plane")
+    r = size_fraction(comp, "E1=9GPa")
+    assert list(r["E1"].models) == ["mori_tanaka"] and r["E1"].bounds is None
+    x = r["E1"].models["mori_tanaka"].fraction
+    assert value(as_constituents(comp), "mori_tanaka", "E1", x) == pytest.approx(9e9, rel=1e-8)
+    from micromech.homogenize import estimate
+
+    assert float(estimate(comp.with_fraction(x))["mori_tanaka"].E1) == pytest.approx(
+        9e9, rel=1e-8)  # the same model as the estimate command
+
+
+def test_random_3d_glass_is_sized_with_the_isotropic_bounds(glass, resin):
+    comp = Composite(glass, resin, 0.3, inclusion="spheroid", aspect_ratio=1.0,
+                     orientation="random_3d")
+    r = size_fraction(comp, "E1=6GPa")
+    # aspect ratio 1: Mori-Tanaka = HS lower bound (Weng 1984), so it closes the interval
+    assert r["E1"].bounds.interval[1] == pytest.approx(r["E1"].models["mori_tanaka"].fraction,
+                                                       rel=1e-9)

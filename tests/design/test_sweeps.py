@@ -139,3 +139,12 @@ def test_matrix_override_sweeps_several_matrices(glass_epoxy):
     s = sweep_fraction(glass_epoxy, "G12", [0.5], matrix=MatrixPhase([3e9, 4e9], 0.35),
                        models=["rule_of_mixtures"], bounds=False)
     assert s.values["rule_of_mixtures"].shape == (2, 1)
+
+
+def test_angle_sweep_of_a_random_mat_is_flat_and_has_no_bounds(glass, resin):
+    from micromech.materials import Composite
+
+    mat = Composite(glass, resin, 0.3, orientation="random_in_plane")
+    s = sweep_angle(mat, "Ex", [0.0, 30.0, 45.0, 90.0])  # bounds=True by default: none apply
+    v = s.values["mori_tanaka"]
+    np.testing.assert_allclose(v, v[0], rtol=1e-12)  # in-plane isotropic ply: exact

@@ -160,3 +160,60 @@ def test_cli_json_models_are_the_contract_keys_in_si(tmp_path):
     assert d["models"]["voigt"]["G12"] == pytest.approx(0.55 * 72e9 / 2.44 + 0.45 * 3.5e9 / 2.7,
                                                         rel=1e-12)
     assert d["models"]["voigt"]["alpha1"] is None  # Voigt gives no CTE: null
+
+
+# --- fibre orientation --------------------------------------------------------------------------
+
+RANDOM_MAT = Path(__file__).parents[1] / "data" / "random_mat" / "case.toml"
+
+
+def test_table_header_and_rows_follow_the_orientation():
+    mat = Composite(GLASS, EPOXY, 0.3, inclusion="spheroid", aspect_ratio=50.0,
+                    orientation="random_in_plane")
+    lines = estimate_table(estimate(mat, case="mat")).splitlines()
+    assert lines[0] == ("mat: fibre fraction 0.3, spheroid (aspect ratio 50), fibres random in "
+                        "the 1-2 plane (axis 3 normal)")
+    rows = [line.split(" [")[0] for line in lines if " [" in line and line[0] in "EGna"]
+    assert rows == ["E1 = E2", "E3", "G12", "G13 = G23", "nu12", "nu13", "alpha1", "alpha3"]
+    iso = estimate(Composite(GLASS, EPOXY, 0.3, inclusion="spheroid", aspect_ratio=50.0,
+                             orientation="random_3d"), case="iso")
+    text = estimate_table(iso)
+    assert text.splitlines()[0].endswith("fibres random in space (isotropic)")
+    assert "E [GPa]" in text and "HS low" in text and "alpha [1e-6/K]" in text
+    aligned = estimate_table(estimate(Composite(GLASS, EPOXY, 0.3), case="ud")).splitlines()[0]
+    assert aligned == "ud: fibre fraction 0.3, continuous, aligned fibres (axis 1)"
+
+
+def test_table_separates_absent_models_from_other_notes():
+    est = estimate(Composite(GLASS, EPOXY, 0.2, inclusion="spheroid", aspect_ratio=200.0,
+                             orientation="random_3d"))
+    text = estimate_table(est)
+    absent, other = text.split("not applied:")[1].split("notes:")
+    assert "halpin_tsai: assumes aligned fibres" in absent and "packing" not in absent
+    assert "packing: rods of aspect ratio 200" in other
+
+
+def test_plot_of_a_random_mat_draws_the_normal_modulus(tmp_path):
+    mat = Composite(GLASS, EPOXY, 0.3, orientation="random_in_plane")
+    out = plot_estimates(estimate(mat), tmp_path / "mat.png", points=11)
+    assert out.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+
+
+def test_cli_estimates_the_random_mat_example():
+    res = CliRunner().invoke(cli, ["estimate", str(RANDOM_MAT), "--json"])
+    assert res.exit_code == 0, res.output
+    d = json.loads(res.output)
+    assert set(d["models"]) == {"voigt", "reuss", "mori_tanaka"}
+    mt = d["models"]["mori_tanaka"]
+    assert mt["E1"] == pytest.approx(mt["E2"], rel=1e-12) and mt["E3"] < mt["E1"]
+    text = CliRunner().invoke(cli, ["estimate", str(RANDOM_MAT)]).output
+    assert "fibres random in the 1-2 plane (axis 3 normal)" in text and "E3 [GPa]" in text
+
+
+def test_cli_rejects_a_random_orientation_of_spheres_with_one_error_line(tmp_path):
+    text = CASE.replace("volume_fraction = 0.55",
+                        'volume_fraction = 0.3\ninclusion = "sphere"\norientation = "random_3d"')
+    res = CliRunner().invoke(cli, ["estimate", _case(tmp_path, text)])
+    assert res.exit_code == 2
+    assert re.fullmatch(r"error: .*case\.toml: \[composite\] orientation = 'random_3d' is not "
+                        r"allowed with inclusion = 'sphere' .*\n", res.output), res.output

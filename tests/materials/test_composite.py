@@ -241,3 +241,72 @@ def test_fraction_that_is_not_a_number_is_rejected(bad):
 def test_fraction_text_that_is_not_a_number_is_a_unit_error():
     with pytest.raises(UnitError, match=r"volume_fraction expects a plain number, got '50 MPa'"):
         Composite(GLASS, EPOXY, "50 MPa")
+
+
+# --- fibre orientation ------------------------------------------------------------------------
+
+
+def test_orientation_defaults_to_aligned():
+    assert Composite(GLASS, EPOXY, 0.3).orientation == "aligned"
+
+
+@pytest.mark.parametrize(
+    ("inclusion", "aspect", "orientation"),
+    [
+        ("spheroid", 20.0, "random_in_plane"),
+        ("spheroid", 20.0, "random_3d"),
+        ("spheroid", 0.1, "random_3d"),  # platelets random in space
+        ("continuous", None, "random_in_plane"),  # continuous-filament mat (module table)
+        ("sphere", None, "aligned"),
+    ],
+)
+def test_allowed_orientations(inclusion, aspect, orientation):
+    c = Composite(GLASS, EPOXY, 0.3, inclusion=inclusion, aspect_ratio=aspect,
+                  orientation=orientation)
+    assert c.orientation == orientation
+
+
+def test_with_fraction_keeps_the_orientation():
+    c = Composite(GLASS, EPOXY, 0.3, inclusion="spheroid", aspect_ratio=20.0,
+                  orientation="random_3d")
+    d = c.with_fraction(np.linspace(0.0, 0.5, 6))
+    assert d.orientation == "random_3d" and d.aspect_ratio == 20.0
+
+
+def test_weight_fraction_constructor_passes_the_orientation():
+    c = Composite.from_weight_fraction(GLASS, EPOXY, 0.4, inclusion="spheroid", aspect_ratio=30.0,
+                                       orientation="random_in_plane")
+    assert c.orientation == "random_in_plane"
+    assert c.weight_fraction == pytest.approx(0.4, rel=1e-13)
+
+
+@pytest.mark.parametrize(
+    ("kw", "match"),
+    [
+        (dict(orientation="random"), r"orientation = 'random' is not one of aligned, "
+                                     r"random_in_plane, random_3d; did you mean 'random_3d'\?"),
+        (dict(inclusion="sphere", orientation="random_3d"),
+         r"orientation = 'random_3d' is not allowed with inclusion = 'sphere' \(rule: random_3d "
+         r"needs inclusion 'spheroid'; a sphere has no orientation\)"),
+        (dict(inclusion="sphere", orientation="random_in_plane"),
+         r"orientation = 'random_in_plane' is not allowed with inclusion = 'sphere' \(rule: "
+         r"random_in_plane needs inclusion 'spheroid' or 'continuous'"),
+        (dict(orientation="random_3d"),
+         r"orientation = 'random_3d' is not allowed with inclusion = 'continuous' .*straight "
+         r"continuous fibres cannot run in every direction in space; use inclusion = 'spheroid'"),
+        (dict(inclusion="spheroid", aspect_ratio=10.0, arrangement="square",
+              orientation="random_3d"),
+         r"orientation = 'random_3d' is not allowed with arrangement = 'square' \(rule: randomly "
+         r"oriented inclusions need arrangement = 'random'"),
+    ],
+)
+def test_orientation_that_does_not_fit_is_rejected(kw, match):
+    with pytest.raises(InputError, match=match):
+        Composite(GLASS, EPOXY, 0.3, **kw)
+
+
+def test_check_orientation_returns_the_orientation():
+    from micromech.materials.composite import check_orientation
+
+    assert check_orientation("aligned", "sphere", "square") == "aligned"
+    assert check_orientation("random_3d", "spheroid") == "random_3d"

@@ -1,4 +1,7 @@
-"""Reading RVE histories: delimited text into tables, tables into curves (invented data)."""
+"""RVE histories into stress-strain curves: units, load-case geometry, lateral strains.
+
+The reading of delimited text into tables is tested in test_tables.py. All data are invented.
+"""
 
 from __future__ import annotations
 
@@ -17,7 +20,6 @@ from micromech.rve import (
     curve_from_columns,
     curve_metrics,
     history_to_curve,
-    ingest,
     load_curve,
     metrics_of_curve,
     read_table,
@@ -27,162 +29,14 @@ FIXTURE = HealthCheck.function_scoped_fixture
 SIZE = (100e-6, 80e-6, 50e-6)  # Lx, Ly, Lz in m (invented cell)
 
 
-def write(tmp_path: Path, text: str, name: str = "h.csv", mode: str = "w") -> Path:
+def write(tmp_path: Path, text: str, name: str = "h.csv") -> Path:
     p = tmp_path / name
-    if mode == "wb":
-        p.write_bytes(text.encode("latin-1") if isinstance(text, str) else text)
-    else:
-        with open(p, "w", newline="") as f:
-            f.write(text)
+    with open(p, "w", newline="") as f:
+        f.write(text)
     return p
 
 
-# --- tables --------------------------------------------------------------------------------
-
-
-def test_header_comments_and_blank_lines_are_skipped_and_lines_counted(tmp_path):
-    p = write(tmp_path, "# invented RVE history\n% solver notes\n\nstep,disp,force\n"
-                        "0,0,0\n\n1,0.1,2\n  # mid comment\n2,0.2,4\n")
-    t = read_table(p)
-    assert t.header == ("step", "disp", "force")
-    assert t.header_line == 4
-    assert t.lines.tolist() == [5, 7, 9]
-    assert t.column("force").tolist() == [0.0, 2.0, 4.0]
-    assert t.columns["disp"].tolist() == [0.0, 0.1, 0.2]
-    assert (t.n_rows, t.n_columns, t.delimiter) == (3, 3, ",")
-
-
-@pytest.mark.parametrize(
-    ("text", "delim"),
-    [
-        ("a\tb\n1\t2\n3\t4\n5\t6\n", "\t"),
-        ("a;b\n1,5;2\n3;4\n5;6\n", ";"),
-        ("a b\n1 2\n3    4\n5\t6\n", " "),
-        ("a, b\n1, 2\n3, 4\n5, 6\n", ","),
-    ],
-)
-def test_delimiter_is_sniffed(tmp_path, text, delim):
-    assert read_table(write(tmp_path, text)).delimiter == delim
-
-
-def test_headerless_file_numbers_columns_from_one(tmp_path):
-    t = read_table(write(tmp_path, "0 0\n1 10\n2 20\n"))
-    assert t.header == () and t.header_line is None
-    assert t.names == ("1", "2")
-    assert t.column(2).tolist() == [0.0, 10.0, 20.0]
-    assert t.column("2").tolist() == [0.0, 10.0, 20.0]
-
-
-def test_crlf_bom_and_quoted_header_are_read(tmp_path):
-    p = write(tmp_path, b'\xef\xbb\xbf"disp";"force"\r\n0;0\r\n1;2\r\n2;4\r\n', mode="wb")
-    t = read_table(p)
-    assert t.header == ("disp", "force")
-    assert t.column("force").tolist() == [0.0, 2.0, 4.0]
-
-
-def test_header_names_match_ignoring_case_and_spaces(tmp_path):
-    t = read_table(write(tmp_path, "Disp X,Force X\n0,0\n1,2\n2,4\n"))
-    assert t.column("dispx").tolist() == [0.0, 1.0, 2.0]
-
-
-def test_delimiter_given_by_name_and_skip_rows(tmp_path):
-    p = write(tmp_path, "solver output v1\nunits below\nd;f\n0;0\n1;2\n2;4\n")
-    t = read_table(p, delimiter="semicolon", skip_rows=2)
-    assert t.lines.tolist() == [4, 5, 6] and t.column("f")[-1] == 4.0
-
-
-def test_text_in_an_unused_column_does_not_stop_reading(tmp_path):
-    t = read_table(write(tmp_path, "disp,force,status\n0,0,ok\n1,2,ok\n2,4,done\n"))
-    assert t.column("force").tolist() == [0.0, 2.0, 4.0]
-
-
-def test_text_in_a_number_column_names_file_line_and_column(tmp_path):
-    p = write(tmp_path, "disp,force\n0,0\n1,abc\n2,4\n")
-    with pytest.raises(DataFileError, match=r"h\.csv, line 3, column 2 \('force'\): 'abc' is not"):
-        read_table(p).column("force")
-
-
-def test_empty_cell_is_reported(tmp_path):
-    p = write(tmp_path, "disp,force\n0,0\n1,\n2,4\n")
-    with pytest.raises(DataFileError, match=r"line 3, column 2 .*an empty cell"):
-        read_table(p).column("force")
-
-
-def test_decimal_comma_gets_a_hint(tmp_path):
-    p = write(tmp_path, "d;f\n0;0\n1;2,5\n2;4\n")
-    with pytest.raises(DataFileError, match="decimal comma"):
-        read_table(p).column("f")
-
-
-def test_nan_and_infinity_are_rejected_with_line(tmp_path):
-    p = write(tmp_path, "disp,force\n0,0\n1,nan\n2,4\n")
-    with pytest.raises(DataFileError, match=r"line 3, column 2 \('force'\): value nan is not"):
-        read_table(p).column("force")
-    p = write(tmp_path, "0 0\n1 2\n2 inf\n", name="b.txt")
-    with pytest.raises(DataFileError, match=r"line 3, column 2: value inf"):
-        read_table(p).column(2)
-
-
-def test_too_few_rows_is_an_error(tmp_path):
-    with pytest.raises(DataFileError, match="2 data row.*at least 3"):
-        read_table(write(tmp_path, "disp,force\n0,0\n1,2\n"))
-
-
-def test_only_comments_is_an_error(tmp_path):
-    with pytest.raises(DataFileError, match="no data rows"):
-        read_table(write(tmp_path, "# nothing\n\n% here\n"))
-
-
-def test_missing_column_name_lists_the_columns(tmp_path):
-    t = read_table(write(tmp_path, "disp,force\n0,0\n1,2\n2,4\n"))
-    with pytest.raises(DataFileError, match=r"line 1: force column 'load' does not exist; .*'d"):
-        t.column("load", "force column")
-
-
-def test_missing_column_number_is_an_error(tmp_path):
-    t = read_table(write(tmp_path, "0,0\n1,2\n2,4\n"))
-    with pytest.raises(DataFileError, match="number 3 does not exist; the file has 2 column"):
-        t.column(3)
-    with pytest.raises(DataFileError, match="number 0 does not exist"):
-        t.column(0)
-
-
-def test_column_reference_of_wrong_type_is_an_error(tmp_path):
-    t = read_table(write(tmp_path, "0,0\n1,2\n2,4\n"))
-    with pytest.raises(DataFileError, match="must be a column name or a 1-based column number"):
-        t.column(1.5)  # type: ignore[arg-type]
-
-
-def test_duplicate_header_name_is_ambiguous(tmp_path):
-    t = read_table(write(tmp_path, "u,f,u\n0,0,0\n1,2,1\n2,4,2\n"))
-    with pytest.raises(DataFileError, match=r"'u' names columns 1, 3; give the column number"):
-        t.column("u")
-    assert t.column(3).tolist() == [0.0, 1.0, 2.0]
-
-
-def test_ragged_row_names_the_line(tmp_path):
-    p = write(tmp_path, "disp,force\n0,0\n1,2,7\n2,4\n")
-    with pytest.raises(DataFileError, match=r"line 3: 3 cell\(s\) where line 1 has 2 \(deli"):
-        read_table(p)
-
-
-def test_non_utf8_file_is_an_error(tmp_path):
-    p = write(tmp_path, b"disp,force\n0,0\n1,\xff\n2,4\n", mode="wb")
-    with pytest.raises(DataFileError, match=r"line 3: not UTF-8 text \(byte 0xff"):
-        read_table(p)
-
-
-def test_missing_file_is_an_error(tmp_path):
-    with pytest.raises(DataFileError, match="cannot read the file"):
-        read_table(tmp_path / "absent.csv")
-
-
-def test_bad_delimiter_and_skip_rows_are_input_errors(tmp_path):
-    p = write(tmp_path, "0,0\n1,2\n2,4\n")
-    with pytest.raises(InputError, match="delimiter: expected"):
-        read_table(p, delimiter="|")
-    with pytest.raises(InputError, match="skip_rows: expected a whole number >= 0, got -1"):
-        read_table(p, skip_rows=-1)
+# --- the file and the arrays ------------------------------------------------------------
 
 
 def test_file_is_never_modified_and_arrays_are_read_only(tmp_path):
@@ -425,43 +279,6 @@ def test_values_that_overflow_in_si_name_the_line(tmp_path):
     t = read_table(write(tmp_path, "e,s\n0,0\n1,1e300\n2,1\n", name="s.csv"))
     with pytest.raises(DataFileError, match=r"line 3: stress overflows"):
         curve_from_columns(t, "x", stress=("s", "GPa"), strain=("e", "1"))
-
-
-_number = st.one_of(st.floats(-1e6, 1e6, allow_nan=False).map(lambda v: f"{v:.6g}"),
-                    st.sampled_from(["abc", "", "nan", "1e5", ".5", "-0"]))
-_extra = st.sampled_from(["", "   ", "# note", "% note", "  # indented note", "\t"])
-
-
-@settings(max_examples=60, deadline=None, suppress_health_check=[FIXTURE])
-@given(
-    rows=st.lists(st.lists(_number, min_size=2, max_size=2), min_size=0, max_size=8),
-    delim=st.sampled_from([",", ";", "\t", " ", "  "]),
-    header=st.booleans(),
-    extras=st.lists(st.tuples(st.integers(0, 10), _extra), max_size=4),
-    crlf=st.booleans(),
-    lead=st.sampled_from(["", " ", "\t ", "\x0b"]),
-)
-def test_ascii_fast_path_and_line_reader_agree(tmp_path, rows, delim, header, extras, crlf, lead):
-    lines = [lead + delim.join(r) for r in rows]
-    if header:
-        lines.insert(0, delim.join(["disp", "force"]))
-    for pos, text in extras:
-        lines.insert(min(pos, len(lines)), text)
-    body = ("\r\n" if crlf else "\n").join(lines)
-    p = tmp_path / "h.csv"
-    p.write_bytes(("# invented, 5 \u00b5m cell\n" + body).encode())
-    outcomes = []
-    for vectorised in (True, False):
-        with pytest.MonkeyPatch.context() as mp:
-            if not vectorised:  # force the line-by-line reader
-                mp.setattr(ingest, "_read_regular", lambda *args: None)
-            try:
-                t = read_table(p)
-                outcomes.append((t.header, np.nan_to_num(t.data, nan=7.5).tolist(),
-                                 t.lines.tolist(), t.delimiter, dict(t.bad_cells)))
-            except DataFileError as exc:
-                outcomes.append(type(exc))
-    assert outcomes[0] == outcomes[1]
 
 
 # --- a row of units under the header --------------------------------------------------------
