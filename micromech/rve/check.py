@@ -557,6 +557,13 @@ def check_case(
     if case.composite is None:
         raise CaseFileError(f"{where}: checking RVE results needs [fibre], [matrix] and "
                             "[composite] with a fraction")
+    orientation = getattr(case.composite, "orientation", "aligned")
+    if orientation != "aligned":
+        raise CaseFileError(
+            f"{where}: [composite] orientation = {orientation!r}: the RVE check grades aligned "
+            "fibres and particles only (its tolerances were measured for aligned fibres); use "
+            "`micromech estimate` for the orientation-averaged estimates and bounds"
+        )
     if offset is not None and not (np.isfinite(offset) and 0.0 < offset < 1.0):
         raise InputError(f"offset = {offset!r} must be a strain between 0 and 1 (e.g. 0.002)")
     if strain_range is not None:

@@ -573,3 +573,18 @@ def test_quasi_isotropic_stack_grades_through_the_stack_constants():
     for name in ("Ex", "Ey", "Gxy"):
         assert low[name].verdict == "suspect"
         assert low[name].lower_bound < low[name].value < low[name].upper_bound
+
+
+def test_randomly_oriented_fibres_are_refused_with_the_rule(tmp_path):
+    # The check's tolerances come from aligned-fibre measurements (ACCURACY.md): a random mat is
+    # refused rather than graded against the wrong band.
+    from micromech.report.check import demo_directory
+
+    src = (demo_directory() / "crossply.toml").read_text(encoding="utf-8")
+    src = src.replace('inclusion = "continuous"', 'inclusion = "spheroid"\naspect_ratio = 20\n'
+                      'orientation = "random_3d"')
+    for name in ("rve_x.csv", "rve_y.csv", "rve_z.csv"):
+        (tmp_path / name).write_bytes((demo_directory() / name).read_bytes())
+    (tmp_path / "mat.toml").write_text(src, encoding="utf-8")
+    with pytest.raises(CaseFileError, match=r"orientation = 'random_3d'.*aligned fibres"):
+        check_case(load_case(tmp_path / "mat.toml"))
