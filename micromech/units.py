@@ -125,17 +125,22 @@ def parse_quantity(value: Any, kind: str, field: str = "value") -> float:
     return _checked(number, field, text)
 
 
-def _parse_string(text: str, kind: str, field: str) -> float:
+def _why(exc: Exception) -> str:
+    """Pint's own message where it has one; tokenizer internals are not shown."""
     import pint
 
+    return f": {exc}" if isinstance(exc, pint.errors.PintError) and str(exc) else ""
+
+
+def _parse_string(text: str, kind: str, field: str) -> float:
     ureg = _registry()
     if kind in ("expansion", "temperature_change"):
         text = _as_difference(text)
     try:
         q: Any = ureg.Quantity(text.replace("µ", "u"))
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
+    except Exception as exc:  # noqa: BLE001 - pint raises many kinds on malformed text
         raise UnitError(
-            f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}: {exc}"
+            f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}{_why(exc)}"
         ) from None
     si_unit = DIMENSIONS[kind][1]
     expected = (ureg.Quantity(1, si_unit) if si_unit else ureg.Quantity(1)).dimensionality
@@ -228,15 +233,13 @@ def unit_factor(unit: str, field: str = "unit") -> float:
     >>> unit_factor("kN")
     1000.0
     """
-    import pint
-
     ureg = _registry()
     if not isinstance(unit, str):
         raise UnitError(f"{field}: unit must be text such as 'mm' or 'kN', got {unit!r}")
     try:
         q = ureg.Quantity(1.0, _as_difference(unit.replace("µ", "u")))
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
-        raise UnitError(f"{field}: unknown unit {unit!r}: {exc}") from None
+    except Exception as exc:  # noqa: BLE001 - pint raises many kinds on malformed text
+        raise UnitError(f"{field}: unknown unit {unit!r}{_why(exc)}") from None
     return float(q.to_base_units().magnitude)
 
 

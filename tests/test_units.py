@@ -174,3 +174,12 @@ def test_unit_module_examples_run():
     import micromech.units
 
     assert doctest.testmod(micromech.units).failed == 0
+
+
+def test_malformed_unit_text_is_a_unit_error_not_a_crash():
+    # pint raises AssertionError / tokenizer errors on such text; the project's error names it.
+    for text in ("1 -", "1 (", "3 GPa)"):
+        with pytest.raises(UnitError, match="f expects a force"):
+            parse_quantity(text, "force", "f")
+    with pytest.raises(UnitError, match="unknown unit"):
+        unit_factor("(")
