@@ -6,8 +6,8 @@ in one process:
 
 1. reading + curve metrics with micromech.rve (read_table, history_to_curve, metrics_of_curve)
    and the constants from the curves;
-2. grading the whole case end to end with micromech.rve.check.check_case, when importable
-   (report plots excluded);
+2. grading the whole case end to end with micromech.rve.check.check_case (report plots
+   excluded);
 3. a baseline: reading the same files with a plain-Python csv loop (csv.reader, float()).
 
 Prints the times and the ratios to the baseline. Run: ``python benchmarks/bench_check.py``.
@@ -25,7 +25,12 @@ from typing import Any
 
 import numpy as np
 
+from micromech.rve import constants_from_curves, history_to_curve, metrics_of_curve, read_table
+from micromech.rve.check import check_case
+from micromech.rve.ingest import _case_geometry
+
 SIZE_UM = (120.0, 70.0, 70.0)  # invented UD cell, fibres along x
+SIZE_M = np.asarray(SIZE_UM) * 1e-6
 # invented moduli (Pa) and Poisson ratios of a glass/epoxy-like UD cell
 MODULI = {"x": 41.6e9, "y": 10.5e9, "z": 10.5e9, "xy": 3.7e9, "xz": 3.7e9, "yz": 3.4e9}
 POISSON = {("x", "y"): 0.27, ("x", "z"): 0.27, ("y", "z"): 0.44, ("y", "x"): 0.27 * 10.5 / 41.6,
@@ -64,17 +69,6 @@ displacement = {{ column = "disp", unit = "um" }}
 {lateral}"""
 
 
-def _area_length(direction: str) -> tuple[float, float]:
-    s = [v * 1e-6 for v in SIZE_UM]
-    ax = {"x": 0, "y": 1, "z": 2}
-    if len(direction) == 1:
-        i = ax[direction]
-        o = [k for k in range(3) if k != i]
-        return s[o[0]] * s[o[1]], s[i]
-    i, j = ax[direction[0]], ax[direction[1]]
-    return s[i] * s[3 - i - j], s[j]
-
-
 def write_case(folder: Path, points: int, seed: int = 0) -> tuple[Path, dict[str, Any]]:
     """Write six histories and a case file; return the case path and the reading settings."""
     rng = np.random.default_rng(seed)
@@ -85,7 +79,7 @@ def write_case(folder: Path, points: int, seed: int = 0) -> tuple[Path, dict[str
         stress = np.linspace(0.0, 1.4 * s0, points)
         strain = stress / E + 0.002 * (stress / s0) ** 12  # Ramberg-Osgood shape
         noisy = stress + rng.normal(0.0, 0.01 * stress[-1], points)
-        area, length = _area_length(d)
+        area, length = _case_geometry(d, SIZE_M)
         cols = [np.arange(points) * 1e-3, strain * length / 1e-6, noisy * area]
         names = ["time", "disp", "force"]
         lateral: dict[str, tuple[str, str]] = {}
@@ -116,14 +110,11 @@ def write_case(folder: Path, points: int, seed: int = 0) -> tuple[Path, dict[str
 
 def time_ours(specs: dict[str, Any]) -> tuple[float, float, dict[str, Any]]:
     """Time reading (table + curve) and the metrics of the six cases."""
-    from micromech.rve import constants_from_curves, history_to_curve, metrics_of_curve, read_table
-
-    size = tuple(v * 1e-6 for v in SIZE_UM)
     t0 = time.perf_counter()
     curves = {}
     for d, spec in specs.items():
         table = read_table(spec["path"])
-        curves[d] = history_to_curve(table, d, size, force=("force", "N"),
+        curves[d] = history_to_curve(table, d, SIZE_M, force=("force", "N"),
                                      displacement=("disp", "um"), lateral=spec["lateral"] or None)
     t1 = time.perf_counter()
     metrics = {d: metrics_of_curve(c) for d, c in curves.items()}
@@ -148,19 +139,10 @@ def time_baseline(specs: dict[str, Any]) -> float:
     return time.perf_counter() - t0
 
 
-def time_check(case: Path) -> tuple[float | None, str]:
-    """Time check_case end to end, when micromech.rve.check is importable."""
-    try:
-        from micromech.rve.check import check_case
-    except ImportError as exc:
-        return None, f"micromech.rve.check not importable ({exc})"
-    from micromech.errors import MicromechError
-
+def time_check(case: Path) -> tuple[float, str]:
+    """Time check_case end to end."""
     t0 = time.perf_counter()
-    try:
-        result = check_case(case)
-    except MicromechError as exc:
-        return None, f"check_case raised: {exc}"
+    result = check_case(case)
     return time.perf_counter() - t0, f"worst verdict: {result.worst_verdict}"
 
 
@@ -177,19 +159,17 @@ def run(points: int = 100_000, repeats: int = 3) -> dict[str, Any]:
             t_check, check_note = time_check(case)
             for key, val in (("read", t_read), ("metrics", t_metrics), ("baseline", t_base),
                              ("check", t_check)):
-                if val is not None:
-                    best[key] = min(best.get(key, np.inf), val)
+                best[key] = min(best.get(key, np.inf), val)
     ours = best["read"] + best["metrics"]
-    seconds = best.get("check", ours)
     return {
         "points": points,
         "read": best["read"],
         "metrics": best["metrics"],
         "read_and_metrics": ours,
-        "check": best.get("check"),
+        "check": best["check"],
         "check_note": check_note,
         "baseline": best["baseline"],
-        "seconds": seconds,
+        "seconds": best["check"],
         "moduli": {d: m.modulus for d, m in info["metrics"].items()},
     }
 
@@ -201,10 +181,7 @@ def main() -> None:
     print(f"  read (table + curve):      {r['read']:.3f} s")
     print(f"  curve metrics + constants: {r['metrics']:.3f} s")
     print(f"  read + metrics:            {r['read_and_metrics']:.3f} s")
-    if r["check"] is not None:
-        print(f"  check_case end to end:     {r['check']:.3f} s ({r['check_note']})")
-    else:
-        print(f"  check_case: not timed ({r['check_note']})")
+    print(f"  check_case end to end:     {r['check']:.3f} s ({r['check_note']})")
     print(f"  baseline csv loop (read only): {r['baseline']:.3f} s")
     print(f"  ratio read + metrics / baseline: {r['read_and_metrics'] / r['baseline']:.2f}")
     print(f"  ratio read only / baseline:      {r['read'] / r['baseline']:.2f}")

@@ -17,7 +17,6 @@ from __future__ import annotations
 
 import difflib
 import math
-import tomllib
 from collections.abc import Iterable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass, field
@@ -27,12 +26,14 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from micromech.errors import CaseFileError, FractionError, MicromechError, RegistryError
+from micromech.errors import CaseFileError, MicromechError, RegistryError
+from micromech.homogenize.estimate import MODEL_KEYS
 from micromech.materials.composite import (
     ARRANGEMENTS,
     INCLUSIONS,
     ORIENTATIONS,
     Composite,
+    check_fraction,
     check_orientation,
 )
 from micromech.materials.models import (
@@ -44,6 +45,7 @@ from micromech.materials.models import (
     material_from_dict,
 )
 from micromech.materials.registry import Registry, default_registry
+from micromech.resources import read_toml
 from micromech.units import parse_quantity
 
 __all__ = [
@@ -60,11 +62,8 @@ __all__ = [
 
 Array = NDArray[np.float64]
 
-#: Model keys an estimate may be named by (``[ply] model = ...``).
-ESTIMATE_MODELS: tuple[str, ...] = (
-    "voigt", "reuss", "hashin_shtrikman_lower", "hashin_shtrikman_upper", "rule_of_mixtures",
-    "halpin_tsai", "chamis", "cylinders", "mori_tanaka",
-)
+#: Model keys an estimate may be named by (``[ply] model = ...``): those of the JSON contract.
+ESTIMATE_MODELS: tuple[str, ...] = MODEL_KEYS
 #: Laminate load keys and their quantity kinds.
 LOAD_KEYS: dict[str, str] = {
     "Nx": "force_per_length", "Ny": "force_per_length", "Nxy": "force_per_length",
@@ -397,14 +396,12 @@ def _composite(
                      "void_fraction")
     key = "volume_fraction" if "volume_fraction" in table else "weight_fraction"
     frac = _quantity(ctx, table[key], "dimensionless", where, key)
-    if fibre is None or matrix is None:
-        # no composite without both constituents (a geometry-only case), but the fraction
-        # must still be a fraction
-        if not 0.0 <= frac <= 1.0:
-            raise FractionError(f"{ctx.label}: {where} {key} = {frac!r} is outside [0, 1] "
-                                "(rule: 0 <= value <= 1)")
-        return None
     with ctx.prefix(where):
+        if fibre is None or matrix is None:
+            # no composite without both constituents (a geometry-only case), but the fraction
+            # must still be a fraction
+            check_fraction(frac, key)
+            return None
         if key == "volume_fraction":
             return Composite(fibre, matrix, frac, inclusion=inclusion,  # type: ignore[arg-type]
                              aspect_ratio=aspect, arrangement=arrangement,  # type: ignore[arg-type]
@@ -547,17 +544,11 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
         raise ctx.error(where, "give force and displacement, or stress and strain, not both")
     force = disp = stress = strain = None
     if has_fd:
-        if "force" not in t or "displacement" not in t:
-            missing = "force" if "force" not in t else "displacement"
-            raise ctx.error(where, f"missing required key {missing!r} (force and displacement "
-                                   "go together)")
+        _both(ctx, t, where, "force", "displacement")
         force = _column(ctx, t["force"], where + " force", ("force",), None)
         disp = _column(ctx, t["displacement"], where + " displacement", ("length",), None)
     elif has_ss:
-        if "stress" not in t or "strain" not in t:
-            missing = "stress" if "stress" not in t else "strain"
-            raise ctx.error(where, f"missing required key {missing!r} (stress and strain go "
-                                   "together)")
+        _both(ctx, t, where, "stress", "strain")
         stress = _column(ctx, t["stress"], where + " stress", ("pressure",), None)
         strain = _column(ctx, t["strain"], where + " strain", ("dimensionless",), "1")
     else:
@@ -593,6 +584,13 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
     return LoadCase(direction=direction, file=path, force=force, displacement=disp,
                     stress=stress, strain=strain, lateral=tuple(lateral), delimiter=delim,
                     skip_rows=skip, strain_range=rng, offset=off)
+
+
+def _both(ctx: _Ctx, table: dict[str, Any], where: str, a: str, b: str) -> None:
+    """Raise unless the two column keys that go together are both given."""
+    for key in (a, b):
+        if key not in table:
+            raise ctx.error(where, f"missing required key {key!r} ({a} and {b} go together)")
 
 
 def _strain_range(ctx: _Ctx, value: Any, where: str) -> tuple[float, float] | None:
@@ -796,11 +794,4 @@ def load_case(path: str | Path, registry: Registry | None = None) -> Case:
     p = Path(path)
     if not p.is_file():
         raise CaseFileError(f"{path}: case file not found")
-    try:
-        with p.open("rb") as fh:
-            data = tomllib.load(fh)
-    except tomllib.TOMLDecodeError as exc:
-        raise CaseFileError(f"{path}: malformed TOML: {exc}") from None
-    except UnicodeDecodeError as exc:
-        raise CaseFileError(f"{path}: not UTF-8 text: {exc}") from None
-    return case_from_dict(data, path=p, registry=registry)
+    return case_from_dict(read_toml(p, CaseFileError, label=path), path=p, registry=registry)

@@ -241,7 +241,11 @@ def laminate_command(
     """ABD, laminate constants, ply stresses and failure for the [laminate] of CASE_FILE."""
     from micromech.case import load_case
     from micromech.laminate import analyse_laminate, failure_envelope, laminate_from_case
-    from micromech.report.laminate import laminate_json, laminate_table
+    from micromech.report.laminate import (
+        envelope_intercepts_table,
+        laminate_json,
+        laminate_table,
+    )
 
     if plot is not None:
         _output_path(plot, "--plot", image=True)
@@ -268,21 +272,7 @@ def laminate_command(
         return
     click.echo(laminate_table(analysis, case=case.name))
     if envelopes:
-        from micromech.laminate import ENVELOPE_AXES
-
-        ax = envelopes[0].axes
-        units = {"N/m": (1e-3, "N/mm"), "N": (1.0, "N*m/m"), "Pa": (1e-6, "MPa")}
-        factors = {a: units[ENVELOPE_AXES[a]] for a in ax}
-        click.echo(f"\nFirst-ply failure envelope in {ax[0]} ({factors[ax[0]][1]}), {ax[1]} "
-                   f"({factors[ax[1]][1]}): intercepts on the axes")
-        keys = (f"+{ax[0]}", f"-{ax[0]}", f"+{ax[1]}", f"-{ax[1]}")
-        click.echo(f"  {'criterion':<12}" + "".join(f"{k:>12}" for k in keys))
-        for e in envelopes:
-            vals = []
-            for k in keys:
-                v = e.intercepts[k] * factors[k[1:]][0]
-                vals.append(f"{v:.4g}" if abs(v) != float("inf") else "never")
-            click.echo(f"  {e.criterion:<12}" + "".join(f"{v:>12}" for v in vals))
+        click.echo("\n" + envelope_intercepts_table(envelopes))
         if plot is not None:
             click.echo(f"  plot written to {plot}")
 
@@ -415,7 +405,6 @@ def rve_command(
         written = arr.to_json(out) if out.lower().endswith(".json") else arr.to_csv(out, unit=unit)
     if plot is not None:
         geo.plot_arrangement(arr, plot)
-    guide = geo.rve_size_guidance(arr)
     if as_json:
         data = arr.as_dict()
         data["case"] = case
@@ -423,35 +412,8 @@ def rve_command(
         data["plot"] = plot
         emit_json(data)
         return
-    lx, ly = arr.cell_size
-    r = arr.radius
-    st = arr.stats
-    n_img = int(arr.images()[1].size)
-    rows = [
-        ("packing", arr.method + ("" if arr.seed is None else f" (seed {arr.seed})")),
-        ("fibres", f"{arr.n_fibres} (+{n_img} images cutting the faces)"),
-        ("fibre diameter", f"{d * 1e6:.4g} um"),
-        ("volume fraction", f"achieved {arr.volume_fraction:.4f} "
-                            f"(asked {arr.target_fraction:.4f})"),
-        ("cell size", f"{lx * 1e6:.4g} x {ly * 1e6:.4g} um = {lx / r:.4g} x {ly / r:.4g} "
-                      "fibre radii"),
-        ("required min gap", f"{arr.min_gap * 1e6:.4g} um ({arr.min_gap / d:.3g} d)"),
-        ("nearest distance [d]", f"mean {st.distance_mean:.4f}, min {st.distance_min:.4f}, "
-                                 f"max {st.distance_max:.4f}, std {st.distance_std:.4f}"),
-        ("nearest gap [d]", f"mean {st.gap_mean:.4f}, min {st.gap_min:.4f}, "
-                            f"std {st.gap_std:.4f}"),
-        ("RVE size guidance", f"{guide.verdict}: {guide.message}"),
-    ]
-    if written is not None:
-        rows.append(("written", str(written)))
-    if plot is not None:
-        rows.append(("plot", str(plot)))
     title = f"RVE cell{'' if case is None else ' for ' + case}"
-    click.echo(title)
-    click.echo("-" * len(title))
-    for name, value in rows:
-        click.echo(f"  {name:<22}{value}")
-    click.echo(f"\n{geo.CAUTION}")
+    click.echo(geo.arrangement_text(arr, title, written=written, plot=plot))
 
 
 # --- size (design) --------------------------------------------------------------------------

@@ -1,17 +1,20 @@
-"""Where the bundled data live: the materials registry and the invented demo cases.
+"""Where the bundled data live (the materials registry and the invented demo cases); TOML input.
 
 The data ship in the source tree (``data/`` next to the package, used by an editable install) and
 are also installed as data files under ``<prefix>/share/micromech/`` by a regular install.
+Registry and case files are read with :func:`read_toml`.
 """
 
 from __future__ import annotations
 
 import sys
+import tomllib
 from pathlib import Path
+from typing import Any
 
-from micromech.errors import DataFileError
+from micromech.errors import DataFileError, MicromechError
 
-__all__ = ["data_candidates", "data_directory"]
+__all__ = ["data_candidates", "data_directory", "read_toml"]
 
 
 def data_candidates(name: str) -> list[Path]:
@@ -62,3 +65,39 @@ def data_directory(name: str, marker: str = "*.toml") -> Path:
     raise DataFileError(
         f"bundled {name} data not found; looked in " + ", ".join(str(p) for p in tried)
     )
+
+
+def read_toml(
+    path: str | Path, error: type[MicromechError], label: str | Path | None = None
+) -> dict[str, Any]:
+    """Parse a TOML file, raising the caller's error class for a file that cannot be read.
+
+    Parameters
+    ----------
+    path : str or Path
+        The file.
+    error : type of MicromechError
+        Raised (e.g. ``CaseFileError``, ``RegistryError``) for malformed TOML or text that is not
+        UTF-8.
+    label : str or Path, optional
+        How the message names the file (default: ``path``).
+
+    Returns
+    -------
+    dict
+        The parsed TOML.
+
+    Raises
+    ------
+    MicromechError
+        Of class ``error``: ``"<label>: malformed TOML: ..."`` (with TOML's line and column) or
+        ``"<label>: not UTF-8 text: ..."``.
+    """
+    label = path if label is None else label
+    try:
+        with Path(path).open("rb") as fh:
+            return tomllib.load(fh)
+    except tomllib.TOMLDecodeError as exc:
+        raise error(f"{label}: malformed TOML: {exc}") from None
+    except UnicodeDecodeError as exc:
+        raise error(f"{label}: not UTF-8 text: {exc}") from None

@@ -9,8 +9,9 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech import tensors
+from micromech.errors import InputError
 
-__all__ = ["ElasticConstants", "CONSTANT_NAMES"]
+__all__ = ["ElasticConstants", "CONSTANT_NAMES", "json_value"]
 
 Array = NDArray[np.float64]
 
@@ -23,8 +24,20 @@ def _arr(x: ArrayLike | None) -> Array | None:
     return None if x is None else np.asarray(x, dtype=np.float64)
 
 
-def _json_value(v: Array) -> Any:
-    """Return a float (or nested lists) with every NaN or infinity replaced by None (null)."""
+def json_value(v: ArrayLike) -> Any:
+    """Return a float (or nested lists) with every NaN or infinity replaced by None (null).
+
+    Parameters
+    ----------
+    v : array_like, shape (...)
+        Values, SI.
+
+    Returns
+    -------
+    float, None or list
+        Strict-JSON form of ``v``.
+    """
+    v = np.asarray(v, dtype=np.float64)
     if v.ndim == 0:
         x = float(v)
         return x if np.isfinite(x) else None
@@ -184,8 +197,6 @@ class ElasticConstants:
         """
         if not self.complete:
             missing = [k for k in CONSTANT_NAMES if getattr(self, k) is None]
-            from micromech.errors import InputError
-
             raise InputError(
                 f"{self.model or 'result'}: the 6x6 stiffness needs all nine constants; "
                 f"missing {', '.join(missing)}"
@@ -247,6 +258,6 @@ class ElasticConstants:
         out: dict[str, Any] = {}
         for k in (*CONSTANT_NAMES, "alpha1", "alpha2"):
             v = getattr(self, k)
-            out[k] = None if v is None else _json_value(v)
+            out[k] = None if v is None else json_value(v)
         out["source"] = self.source
         return out

@@ -39,6 +39,7 @@ __all__ = [
     "is_symmetric",
     "is_positive_definite",
     "check_stiffness",
+    "at_index",
 ]
 
 Array = NDArray[np.float64]
@@ -586,11 +587,11 @@ def check_stiffness(C: ArrayLike, name: str = "stiffness", rtol: float = 1e-8) -
     InvalidMaterialError
         Naming the first offending index and the rule broken.
     """
-    C = _f(C)
-    if C.shape[-2:] != (6, 6):
-        raise InputError(f"{name}: expected shape (..., 6, 6), got {C.shape}")
+    C = _six_by_six(C, name)
     finite = np.all(np.isfinite(C), axis=(-2, -1))
-    _raise_first(np.logical_not(finite), name, "must be finite (no NaN or infinity)")
+    if not np.all(finite):
+        raise InvalidMaterialError(
+            f"{name}{at_index(np.logical_not(finite))} must be finite (no NaN or infinity)")
     err = symmetry_error(C)
     bad = err > rtol
     if np.any(bad):
@@ -622,6 +623,22 @@ def _at(idx: tuple[int, ...]) -> str:
     return f" at index {idx if len(idx) > 1 else idx[0]}" if idx else ""
 
 
-def _raise_first(mask: Any, name: str, rule: str) -> None:
-    if np.any(mask):
-        raise InvalidMaterialError(f"{name}{_at(_first(mask))} {rule}")
+def at_index(mask: ArrayLike) -> str:
+    """Name the first True entry of a mask, for error messages.
+
+    Parameters
+    ----------
+    mask : array_like of bool, shape (...)
+        Where a rule is broken; at least one entry is True.
+
+    Returns
+    -------
+    str
+        ``" at index 3"`` (one axis), ``" at index (1, 2)"`` (several) or ``""`` (a 0-d mask).
+
+    Examples
+    --------
+    >>> at_index([False, True]), at_index([[False], [True]]), at_index(True)
+    (' at index 1', ' at index (1, 0)', '')
+    """
+    return _at(_first(mask))

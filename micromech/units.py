@@ -142,24 +142,24 @@ def _parse_string(text: str, kind: str, field: str) -> float:
         raise UnitError(
             f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}{_why(exc)}"
         ) from None
-    si_unit = DIMENSIONS[kind][1]
-    expected = (ureg.Quantity(1, si_unit) if si_unit else ureg.Quantity(1)).dimensionality
-    if not hasattr(q, "dimensionality") or q.dimensionality != expected:
-        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}"
-                        f"{_what_it_is(q, ureg)}")
-    mag = q.to(si_unit).magnitude if si_unit else q.to("dimensionless").magnitude
-    return float(mag)
+    if not hasattr(q, "dimensionality") or q.dimensionality != _dimensionality(kind):
+        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}{_what_it_is(q)}")
+    return float(q.to(DIMENSIONS[kind][1] or "dimensionless").magnitude)
 
 
-def _what_it_is(q: Any, ureg: Any) -> str:
+def _dimensionality(kind: str) -> Any:
+    """Return pint's dimensionality of the SI unit of a quantity kind."""
+    return _registry().Quantity(1, DIMENSIONS[kind][1] or "dimensionless").dimensionality
+
+
+def _what_it_is(q: Any) -> str:
     """Name the kind of quantity a wrongly dimensioned value is, for the error message."""
     dim = getattr(q, "dimensionality", None)
     if dim is None:
         return ""
     for kind in ("pressure", "length", "force", "force_per_length", "density", "expansion",
                  "temperature_change", "area", "dimensionless"):
-        unit = DIMENSIONS[kind][1]
-        if (ureg.Quantity(1, unit) if unit else ureg.Quantity(1)).dimensionality == dim:
+        if _dimensionality(kind) == dim:
             return f", which is {_PLAIN_WORDS[kind].split(' (')[0]}"
     return f", of dimension {dim}"
 

@@ -34,7 +34,7 @@ References
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterator, Mapping
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, fields, replace
 from typing import Any, Literal
 
@@ -50,6 +50,8 @@ __all__ = [
     "BOUND_MODELS",
     "Constituents",
     "applicable_models",
+    "chosen_models",
+    "fraction_of",
     "estimate_at",
     "properties_at",
     "forward_model",
@@ -299,6 +301,74 @@ def applicable_models(c: Constituents) -> tuple[str, ...]:
     if c.inclusion == "spheroid" and float(c.aspect_ratio) >= 1.0:  # type: ignore[arg-type]
         return ("halpin_tsai", "mori_tanaka")
     return ("mori_tanaka",)
+
+
+def chosen_models(c: Constituents, models: Sequence[str] | None) -> tuple[str, ...]:
+    """Check the estimate keys a user chose against those that apply (all of them for None).
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description.
+    models : sequence of str or None
+        Chosen estimate keys.
+
+    Returns
+    -------
+    tuple of str
+        The chosen keys (or every applicable one).
+
+    Raises
+    ------
+    InputError
+        If a key does not apply to the inclusion shape (bounds are named with a hint: they
+        are added with ``bounds=True``).
+    """
+    keys = applicable_models(c)
+    chosen = tuple(keys if models is None else models)
+    for k in chosen:
+        if k not in keys:
+            hint = " (bounds are added with bounds=True)" if k in BOUND_MODELS else ""
+            raise InputError(f"models: {k!r} does not apply to {c.inclusion_text} inclusions; "
+                             f"choose from {', '.join(keys)}{hint}")
+    return chosen
+
+
+def fraction_of(c: Constituents, design: Any, volume_fraction: float | None, what: str) -> float:
+    """Return the fibre fraction given, or else the design's own, checked against packing.
+
+    Parameters
+    ----------
+    c : Constituents
+        The design description (for the packing limit).
+    design : Composite, Case or Constituents
+        Where the fraction comes from when ``volume_fraction`` is None.
+    volume_fraction : float or None
+        The fraction given.
+    what : str
+        How the fraction is named in the message when none is found
+        (``"the mean fibre fraction"``).
+
+    Returns
+    -------
+    float
+        The fibre volume fraction.
+
+    Raises
+    ------
+    InputError
+        If no fraction is given nor found, or it lies outside [0, packing limit].
+    """
+    if volume_fraction is None:
+        comp = getattr(design, "composite", design)
+        if not hasattr(comp, "volume_fraction"):
+            raise InputError(f"volume_fraction: give {what}")
+        volume_fraction = float(np.asarray(comp.volume_fraction))
+    vf = float(volume_fraction)
+    if not 0.0 <= vf <= c.upper_fraction:
+        raise InputError(f"volume_fraction = {vf!r} must lie in [0, {c.upper_fraction:.4g}] "
+                         "(the packing limit)")
+    return vf
 
 
 def estimate_at(c: Constituents, model: str, vf: ArrayLike) -> ElasticConstants:

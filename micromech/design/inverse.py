@@ -38,6 +38,7 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.design.roots import (
     DEFAULT_POINTS,
     IntervalSet,
+    Relation,
     evaluate,
     intersect,
     intersect_all,
@@ -122,8 +123,9 @@ def _property_function(model: ForwardModel, name: str) -> Callable[[Array], Arra
 # --- result objects ---------------------------------------------------------------------------
 
 
-def _opt(x: Any) -> float | None:
-    return None if x is None else float(x)
+def _span(a: float, b: float) -> str:
+    """``"Vf a"`` for a point, ``"Vf a to b"`` for an interval."""
+    return f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}"
 
 
 @dataclass(frozen=True)
@@ -191,8 +193,7 @@ class FractionInterval:
         str
             The fraction interval as text.
         """
-        a, b = self.low.volume_fraction, self.high.volume_fraction
-        return f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}"
+        return _span(self.low.volume_fraction, self.high.volume_fraction)
 
 
 @dataclass(frozen=True)
@@ -425,30 +426,19 @@ class SizingResult:
 
 
 def _points(xs: Sequence[float], mass: MassModel | None) -> tuple[FractionPoint, ...]:
-    if not len(xs):
-        return ()
     x = np.asarray(xs, dtype=np.float64)
-    if mass is None:
-        return tuple(FractionPoint(float(v)) for v in x)
-    m = mass(x)
-    rho = property_values(m, "density")
-    wf = property_values(m, "weight_fraction")
-    out = []
-    for i, v in enumerate(x):
-        out.append(FractionPoint(
-            float(v),
-            None if wf is None else _opt(np.broadcast_to(wf, x.shape)[i]),
-            None if rho is None else _opt(np.broadcast_to(rho, x.shape)[i]),
-        ))
-    return tuple(out)
+    m = mass(x) if mass is not None and x.size else {}
+    wf, rho = (property_values(m, k) for k in ("weight_fraction", "density"))
+
+    def at(a: Array | None, i: int) -> float | None:
+        return None if a is None else float(np.broadcast_to(a, x.shape)[i])
+
+    return tuple(FractionPoint(float(v), at(wf, i), at(rho, i)) for i, v in enumerate(x))
 
 
 def _intervals(iv: IntervalSet, mass: MassModel | None) -> tuple[FractionInterval, ...]:
-    if not iv:
-        return ()
-    ends = [v for pair in iv for v in pair]
-    pts = _points(ends, mass)
-    return tuple(FractionInterval(pts[2 * i], pts[2 * i + 1]) for i in range(len(iv)))
+    pts = _points([v for pair in iv for v in pair], mass)
+    return tuple(FractionInterval(a, b) for a, b in zip(pts[::2], pts[1::2], strict=True))
 
 
 def _raw(intervals: tuple[FractionInterval, ...]) -> IntervalSet:
@@ -556,20 +546,17 @@ def _bounds_solution(
     def band_hi(x: Array) -> Array:
         return np.maximum(lo_f(x), hi_f(x))
 
-    T = target.value
-    _, up_ge = satisfying_set(band_hi, ">=", T, lower, upper, points=points)
-    _, lo_le = satisfying_set(band_lo, "<=", T, lower, upper, points=points)
+    def met(f: Callable[[Array], Array], relation: Relation) -> IntervalSet:
+        return satisfying_set(f, relation, target.value, lower, upper, points=points)[1]
+
+    # possible: some value in the band meets the target; guaranteed: every value does
     if target.relation == "==":
-        possible = intersect(up_ge, lo_le)
-        _, a = satisfying_set(band_lo, "==", T, lower, upper, points=points)
-        _, b = satisfying_set(band_hi, "==", T, lower, upper, points=points)
-        guaranteed = intersect(a, b)
+        possible = intersect(met(band_hi, ">="), met(band_lo, "<="))
+        guaranteed = intersect(met(band_lo, "=="), met(band_hi, "=="))
     elif target.relation == ">=":
-        possible = up_ge
-        _, guaranteed = satisfying_set(band_lo, ">=", T, lower, upper, points=points)
+        possible, guaranteed = met(band_hi, ">="), met(band_lo, ">=")
     else:
-        possible = lo_le
-        _, guaranteed = satisfying_set(band_hi, "<=", T, lower, upper, points=points)
+        possible, guaranteed = met(band_lo, "<="), met(band_hi, "<=")
     pos = _intervals(possible, mass)
     gua = _intervals(guaranteed, mass)
     what = target.describe()
@@ -648,17 +635,14 @@ def _size_one(
 
 def _reached_sentence(what: str, sols: Mapping[str, FractionSolution],
                       frange: tuple[float, float] | None) -> str:
-    span = "" if frange is None else (
-        f"Vf {frange[0]:.4g}" if frange[0] == frange[1]
-        else f"Vf {frange[0]:.4g} to {frange[1]:.4g}")
+    span = "" if frange is None else _span(*frange)
     first = next(iter(sols.values()))
     if first.target.relation == "==":
         return f"{what} is reached at {span} over the models"
     lo, hi = first.lower, first.upper
     both = intersect_all([_raw(s.intervals) for s in sols.values()], lo, hi)
-    held = ("holds under every model for " + ", ".join(
-        f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}" for a, b in both)
-        if both else "holds under no model at every fraction")
+    held = ("holds under every model for " + ", ".join(_span(a, b) for a, b in both)
+            if both else "holds under no model at every fraction")
     return f"{what} {held}" + (f" (the models cross it at {span})" if span else "")
 
 

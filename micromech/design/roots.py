@@ -11,7 +11,9 @@ returns an array of the same shape. A target ``f(vf) = T`` is solved in three st
 3. refine each bracket with Brent's method (:func:`scipy.optimize.brentq`).
 
 Sets of fractions are tuples of closed intervals ``((a, b), ...)``, sorted and disjoint; an
-isolated point is ``(a, a)``.
+isolated point is ``(a, a)``. Intersections treat ends closer than :data:`TOUCH` (1e-9 in the
+fraction) as touching, so two targets met at the same fraction (each root refined on its own,
+to a few units in the last place) give that point rather than nothing.
 
 Limits: a hump of ``f`` that crosses ``T`` twice within the first or last grid cell and has no grid
 extremum is missed; with the default 257 grid points that cell is 1/256 of the range.
@@ -36,6 +38,7 @@ __all__ = [
     "Relation",
     "IntervalSet",
     "DEFAULT_POINTS",
+    "TOUCH",
     "evaluate",
     "find_crossings",
     "satisfying_set",
@@ -50,6 +53,9 @@ ForwardFunction = Callable[[Array], ArrayLike]
 
 #: Grid points of the scan that precedes the bracketed root search.
 DEFAULT_POINTS = 257
+
+#: Gap in the fraction below which two interval ends count as one point when intersecting.
+TOUCH = 1e-9
 
 _EPS = float(np.finfo(float).eps)
 _RTOL = 4.0 * _EPS
@@ -267,7 +273,8 @@ def intersect(a: IntervalSet, b: IntervalSet) -> IntervalSet:
     Returns
     -------
     tuple of (float, float)
-        Sorted, disjoint closed intervals (points kept as ``(x, x)``).
+        Sorted, disjoint closed intervals (points kept as ``(x, x)``). Two pieces whose ends lie
+        within :data:`TOUCH` of each other meet in one point, the midpoint of the gap.
     """
     out: list[tuple[float, float]] = []
     i = j = 0
@@ -276,6 +283,9 @@ def intersect(a: IntervalSet, b: IntervalSet) -> IntervalSet:
         hi = min(a[i][1], b[j][1])
         if lo <= hi:
             out.append((lo, hi))
+        elif lo - hi <= TOUCH:
+            mid = 0.5 * (lo + hi)
+            out.append((mid, mid))
         if a[i][1] < b[j][1]:
             i += 1
         else:

@@ -43,7 +43,13 @@ from typing import Any, Literal
 import numpy as np
 from numpy.typing import NDArray
 
-from micromech.design.forward import Constituents, applicable_models, properties_at
+from micromech.design.forward import (
+    Constituents,
+    applicable_models,
+    fraction_of,
+    properties_at,
+)
+from micromech.design.inverse import property_values
 from micromech.design.sizing import as_constituents
 from micromech.design.targets import property_kind
 from micromech.design.uncertainty import (
@@ -239,14 +245,7 @@ def monte_carlo(
     if model not in applicable_models(c) and not model.startswith("hashin_shtrikman"):
         raise InputError(f"model {model!r} does not apply to {c.inclusion} inclusions; choose "
                          f"from {', '.join(applicable_models(c))}")
-    if volume_fraction is None:
-        comp = getattr(design, "composite", design)
-        if not hasattr(comp, "volume_fraction"):
-            raise InputError("volume_fraction: give the mean fibre fraction")
-        volume_fraction = float(np.asarray(comp.volume_fraction))
-    vf = float(volume_fraction)
-    if not 0.0 <= vf <= c.upper_fraction:
-        raise InputError(f"volume_fraction = {vf!r} must lie in [0, {c.upper_fraction:.4g}]")
+    vf = fraction_of(c, design, volume_fraction, "the mean fibre fraction")
     nominal = properties_at(c, model, np.asarray([vf]))
     if properties is None:
         names = [k for k in (*DEFAULT_PROPERTIES, *_LAMINATE) if k in nominal]
@@ -254,8 +253,7 @@ def monte_carlo(
         names = list(properties)
         for k in names:
             property_kind(k)
-            parts = [p.strip() for p in k.split("/")]
-            if any(p not in nominal for p in parts):
+            if property_values(nominal, k) is None:
                 raise InputError(f"property {k!r}: {model} does not give it here (it gives "
                                  f"{', '.join(nominal)})")
     inputs = constituent_inputs(
@@ -272,12 +270,7 @@ def monte_carlo(
             over["fibre_density"] = s["fibre.density"]
             over["matrix_density"] = s["matrix.density"]
         props = properties_at(replace(c, **over), model, s["volume_fraction"])  # type: ignore[arg-type]
-        out: dict[str, Any] = {}
-        for k in names:
-            parts = [p.strip() for p in k.split("/")]
-            a = props[parts[0]]
-            out[k] = a if len(parts) == 1 else a / props[parts[1]]
-        return out
+        return {k: property_values(props, k) for k in names}
 
     return propagate(evaluate, inputs, n, seed=seed, percentiles=percentiles, bins=bins,
                      chunk_size=chunk_size, progress=progress,

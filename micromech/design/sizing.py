@@ -13,10 +13,9 @@ from collections.abc import Sequence
 from typing import Any
 
 from micromech.design.forward import (
-    BOUND_MODELS,
     Constituents,
-    applicable_models,
     bound_models,
+    chosen_models,
     forward_model,
     mass_at,
 )
@@ -139,14 +138,7 @@ def size_fraction(
                              "or pass layup=")
         if any(p in ("density", "weight_fraction") for p in t.parts) and not c.has_density:
             raise InputError(f"target {t.name} needs the densities of the fibre and the matrix")
-    keys = applicable_models(c)
-    chosen = tuple(keys if models is None else models)
-    for k in chosen:
-        if k not in keys:
-            hint = (" (bounds are added with bounds=True)" if k in BOUND_MODELS else "")
-            raise InputError(f"models: {k!r} does not apply to {c.inclusion_text} inclusions; "
-                             f"choose from {', '.join(keys)}{hint}")
-    fwd = {k: forward_model(c, k) for k in chosen}
+    fwd = {k: forward_model(c, k) for k in chosen_models(c, models)}
     bnd = bound_models(c) if bounds else None
 
     def mass(v: Any) -> dict[str, Any]:

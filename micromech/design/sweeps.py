@@ -36,9 +36,11 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.design.forward import (
     BOUND_MODELS,
     Constituents,
-    applicable_models,
+    bound_models,
+    chosen_models,
     estimate_at,
     forward_model,
+    fraction_of,
     has_bounds,
     laminate_in_plane,
 )
@@ -109,11 +111,6 @@ class Sweep:
         }
 
 
-def _values(result: Any, name: str, shape: tuple[int, ...]) -> Array | None:
-    v = property_values(result, name)
-    return None if v is None else np.broadcast_to(v, shape).copy()
-
-
 def sweep(
     models: Mapping[str, Callable[[Array], Any]],
     x: ArrayLike,
@@ -179,31 +176,14 @@ def sweep(
                  fixed=dict(fixed or {}))
 
 
-def _design(design: Any, fibre: Any, matrix: Any, fibre_density: Any, matrix_density: Any,
-            layup: str | None, ply_thickness: float | None) -> Constituents:
+def _design(design: Any, layup: str | None = None, ply_thickness: float | None = None,
+            **overrides: Any) -> Constituents:
+    """Return the design's constituents with the phases or densities given (not None) replaced."""
     from dataclasses import replace
 
     c = as_constituents(design, layup=layup, ply_thickness=ply_thickness)
-    over: dict[str, Any] = {}
-    if fibre is not None:
-        over["fibre"] = fibre
-    if matrix is not None:
-        over["matrix"] = matrix
-    if fibre_density is not None:
-        over["fibre_density"] = fibre_density
-    if matrix_density is not None:
-        over["matrix_density"] = matrix_density
+    over = {k: v for k, v in overrides.items() if v is not None}
     return replace(c, **over) if over else c
-
-
-def _models(c: Constituents, models: Sequence[str] | None) -> tuple[str, ...]:
-    keys = applicable_models(c)
-    chosen = tuple(keys if models is None else models)
-    for k in chosen:
-        if k not in keys:
-            raise InputError(f"models: {k!r} does not apply to {c.inclusion_text} inclusions; "
-                             f"choose from {', '.join(keys)}")
-    return chosen
 
 
 def sweep_fraction(
@@ -269,61 +249,46 @@ def sweep_fraction(
     >>> [round(float(v) / 1e9, 2) for v in s.values["rule_of_mixtures"]]
     [3.5, 37.75]
     """
-    c = _design(design, fibre, matrix, fibre_density, matrix_density, layup, ply_thickness)
+    c = _design(design, layup, ply_thickness, fibre=fibre, matrix=matrix,
+                fibre_density=fibre_density, matrix_density=matrix_density)
     x = (np.linspace(0.0, c.upper_fraction, points) if fractions is None
          else np.asarray(fractions, dtype=np.float64))
     ce = c.expanded()
-    chosen = _models(c, models)
-    fwd = {k: forward_model(ce, k) for k in chosen}
-    from micromech.design.forward import bound_models
-
+    fwd = {k: forward_model(ce, k) for k in chosen_models(c, models)}
     bnd = bound_models(ce) if bounds else None
     return sweep(fwd, x, prop, bounds=bnd, variable="volume_fraction",
                  fixed={"layup": c.layup or None, "inclusion": c.inclusion})
 
 
 def _ply_sweep(
+    prop: str,
+    x: Array,
+    variable: str,
     c: Constituents,
     vf: float,
-    chosen: tuple[str, ...],
+    models: Sequence[str] | None,
     bounds: bool,
     fn: Callable[[Any], dict[str, Array]],
-) -> tuple[dict[str, dict[str, Array]], tuple[dict[str, Array], dict[str, Array]] | None]:
+    fixed: dict[str, Any],
+) -> Sweep:
+    """Sweep of ``fn(ply constants)``: laminate constants over x, plies estimated at ``vf``."""
     ce = c.expanded()
     v = np.asarray(vf, dtype=np.float64)
-    out = {k: fn(estimate_at(ce, k, v)) for k in chosen}
-    bnd = None
-    if bounds and has_bounds(c):
-        bnd = (fn(estimate_at(ce, BOUND_MODELS[0], v)), fn(estimate_at(ce, BOUND_MODELS[1], v)))
-    return out, bnd
 
+    def laminate_of(model: str) -> Callable[[Array], dict[str, Array]]:
+        values = fn(estimate_at(ce, model, v))
+        return lambda _x: values
 
-def _assemble(prop: str, x: Array, variable: str, out: dict[str, dict[str, Array]],
-              bnd: tuple[dict[str, Array], dict[str, Array]] | None,
-              fixed: dict[str, Any]) -> Sweep:
-    models = {k: (lambda _x, r=r: r) for k, r in out.items()}
-    bf = None if bnd is None else ((lambda _x: bnd[0]), (lambda _x: bnd[1]))
-    return sweep(models, x, prop, bounds=bf, variable=variable, fixed=fixed)
+    fwd = {k: laminate_of(k) for k in chosen_models(c, models)}
+    bnd = (laminate_of(BOUND_MODELS[0]), laminate_of(BOUND_MODELS[1])) \
+        if bounds and has_bounds(c) else None
+    return sweep(fwd, x, prop, bounds=bnd, variable=variable, fixed=fixed)
 
 
 def _check_prop(prop: str, variable: str) -> None:
     if prop not in LAMINATE_NAMES:
         raise InputError(f"property {prop!r}: an {variable} sweep gives "
                          f"{', '.join(LAMINATE_NAMES)}")
-
-
-def _fraction_of(c: Constituents, design: Any, volume_fraction: float | None) -> float:
-    if volume_fraction is not None:
-        vf = float(volume_fraction)
-    else:
-        comp = getattr(design, "composite", design)
-        if not hasattr(comp, "volume_fraction"):
-            raise InputError("volume_fraction: give the fibre fraction of the plies")
-        vf = float(np.asarray(comp.volume_fraction))
-    if not 0.0 <= vf <= c.upper_fraction:
-        raise InputError(f"volume_fraction = {vf!r} must lie in [0, {c.upper_fraction:.4g}] "
-                         "(the packing limit)")
-    return vf
 
 
 def sweep_angle(
@@ -376,16 +341,16 @@ def sweep_angle(
     if family not in ("off_axis", "angle_ply"):
         raise InputError(f"family: expected 'off_axis' or 'angle_ply', got {family!r}")
     _check_prop(prop, "angle")
-    c = _design(design, fibre, matrix, None, None, None, None)
-    vf = _fraction_of(c, design, volume_fraction)
+    c = _design(design, fibre=fibre, matrix=matrix)
+    vf = fraction_of(c, design, volume_fraction, "the fibre fraction of the plies")
     x = np.arange(0.0, 91.0) if angles is None else np.asarray(angles, dtype=np.float64)
     lay = x[:, None] if family == "off_axis" else np.stack([x, -x, -x, x], -1)
 
     def fn(k: Any) -> dict[str, Array]:
         return laminate_in_plane(k.E1, k.E2, k.nu12, k.G12, lay)
 
-    out, bnd = _ply_sweep(c, vf, _models(c, models), bounds, fn)
-    return _assemble(prop, x, "angle", out, bnd, {"family": family, "volume_fraction": vf})
+    return _ply_sweep(prop, x, "angle", c, vf, models, bounds, fn,
+                      {"family": family, "volume_fraction": vf})
 
 
 def _cross_ply(k: Any, p: Array) -> dict[str, Array]:
@@ -449,10 +414,10 @@ def sweep_ply_share(
     Kaw (2006), Sec. 4.5; Jones (1999), Sec. 4.3.2 (cross-ply laminates).
     """
     _check_prop(prop, "ply_share")
-    c = _design(design, fibre, matrix, None, None, None, None)
-    vf = _fraction_of(c, design, volume_fraction)
+    c = _design(design, fibre=fibre, matrix=matrix)
+    vf = fraction_of(c, design, volume_fraction, "the fibre fraction of the plies")
     x = np.linspace(0.0, 1.0, 51) if shares is None else np.asarray(shares, dtype=np.float64)
     if np.any((x < 0.0) | (x > 1.0)):
         raise InputError(f"shares: {float(x[(x < 0) | (x > 1)][0])!r} is outside [0, 1]")
-    out, bnd = _ply_sweep(c, vf, _models(c, models), bounds, lambda k: _cross_ply(k, x))
-    return _assemble(prop, x, "ply_share", out, bnd, {"volume_fraction": vf, "family": "0/90"})
+    return _ply_sweep(prop, x, "ply_share", c, vf, models, bounds, lambda k: _cross_ply(k, x),
+                      {"volume_fraction": vf, "family": "0/90"})

@@ -235,7 +235,7 @@ class SizingTarget:
     def __post_init__(self) -> None:
         num, den = _split(self.name)
         object.__setattr__(self, "name", num if den is None else f"{num}/{den}")
-        property_kind(self.name)
+        kinds = [k for k in property_kind(self.name) if k is not None]
         if self.relation not in ("==", ">=", "<="):
             raise InputError(
                 f"target {self.name}: relation {self.relation!r} is not one of '=', '>=', '<='"
@@ -243,7 +243,6 @@ class SizingTarget:
         v = float(self.value)
         if not v == v or v in (float("inf"), float("-inf")):
             raise InputError(f"target {self.name}: value {self.value!r} must be finite")
-        kinds = [k for k in property_kind(self.name) if k is not None]
         if all(k in _POSITIVE_KINDS for k in kinds) and not v > 0.0:
             raise InputError(
                 f"target {self.name}: value {format_value(self.name, v)} must be positive "
@@ -281,7 +280,6 @@ class SizingTarget:
                 "(e.g. 'E2=9GPa')"
             )
         name, op, value = m.group(1), m.group(2), m.group(3)
-        name = "/".join(p.strip() for p in name.split("/"))
         rel = cast(Relation, "==" if op in ("=", "==") else op)
         return cls(name, parse_property_value(value, name), rel)
 

@@ -11,6 +11,7 @@ from micromech.errors import FractionError
 from micromech.homogenize import walpole as W
 from micromech.homogenize.phases import FibrePhase, MatrixPhase
 from micromech.results import ElasticConstants
+from micromech.tensors import at_index
 
 Array = NDArray[np.float64]
 
@@ -38,14 +39,36 @@ def fraction(vf: ArrayLike, field: str = "vf") -> Array:
     v = np.asarray(vf, dtype=np.float64)
     bad = ~((v >= 0.0) & (v <= 1.0))
     if np.any(bad):
-        if v.ndim == 0:
-            raise FractionError(f"{field} = {float(v)!r} must lie in [0, 1]")
-        idx = tuple(int(i) for i in np.argwhere(bad)[0])
-        raise FractionError(
-            f"{field} = {float(v[idx])!r} at index {idx if len(idx) > 1 else idx[0]} "
-            "must lie in [0, 1]"
-        )
+        raise FractionError(f"{field} = {float(v[bad][0])!r}{at_index(bad)} must lie in [0, 1]")
     return v
+
+
+def void_fractions(vf: ArrayLike, void_fraction: ArrayLike) -> tuple[Array, Array, bool]:
+    """Return the fibre and void fractions, checked, and whether there are any voids.
+
+    Parameters
+    ----------
+    vf, void_fraction : array_like, shape (...)
+        Fibre and void volume fractions, each in [0, 1]; the matrix takes the rest.
+
+    Returns
+    -------
+    vf, void_fraction : ndarray, shape (...)
+        The fractions.
+    voids : bool
+        Whether any void fraction is positive.
+
+    Raises
+    ------
+    FractionError
+        A fraction outside [0, 1], or vf + void_fraction > 1.
+    """
+    c = fraction(vf)
+    cv = fraction(void_fraction, "void_fraction")
+    voids = bool(np.any(cv > 0.0))
+    if voids and np.any(c + cv > 1.0 + 1e-12):
+        raise FractionError(f"vf + void_fraction = {float(np.max(c + cv))!r} exceeds 1")
+    return c, cv, voids
 
 
 def phases(fibre: Any, matrix: Any) -> tuple[FibrePhase, MatrixPhase]:
@@ -192,22 +215,81 @@ def ti_result(
     if S is None:
         assert C is not None, "ti_result needs C or S"  # internal use only
         S = W.inv(C)
-    E1 = 1.0 / S.d
-    tr = S.c + S.g
-    E2 = 2.0 / tr
     k23 = C.c / 2.0 if C is not None else 0.5 * S.d / (S.c * S.d - S.e * S.f)
-    ex = {"k23": k23}
-    ex.update(extra or {})
-    G12 = 0.5 / S.h
-    nu12 = (-1.0 / W.SQ2) * S.e * E1
-    return ElasticConstants(
-        E1=E1, E2=E2, E3=E2, G12=G12, G13=G12, G23=0.5 / S.g,
-        nu12=nu12, nu13=nu12, nu23=(S.g - S.c) / tr,
-        alpha1=None if alpha is None else alpha[0],
-        alpha2=None if alpha is None else alpha[1],
-        alpha3=None if alpha is None else alpha[1],
-        model=model, source=source, extra=ex,
+    e = W.engineering_from_compliance(S)
+    a1, a2 = (None, None) if alpha is None else alpha
+    return ElasticConstants.transversely_isotropic(
+        e["E1"], e["E2"], e["nu12"], e["G12"], e["G23"], nu23=e["nu23"], alpha1=a1, alpha2=a2,
+        model=model, source=source, extra={"k23": k23, **(extra or {})},
     )
+
+
+def normal_result(
+    S: W.TI,
+    orientation: str,
+    *,
+    model: str,
+    source: str,
+    alpha: tuple[Array, Array] | None = None,
+) -> ElasticConstants:
+    """Constants, in the composite's axes, of a compliance transversely isotropic about axis 3.
+
+    Randomly oriented fibres: the Walpole components are taken about the plate normal (axis 3,
+    ``random_in_plane``); for ``random_3d`` the compliance is isotropic, and so are the constants
+    (``extra`` has K and G).
+
+    Parameters
+    ----------
+    S : walpole.TI
+        Compliance about the normal, 1/Pa.
+    orientation : {"random_in_plane", "random_3d"}
+        Fibre orientation.
+    model, source : str
+        Model key and published source.
+    alpha : tuple of ndarray, optional
+        ``(in-plane, normal)`` CTEs, 1/K.
+
+    Returns
+    -------
+    ElasticConstants
+        E1 = E2 in the plane, E3 along the normal (``random_3d``: all equal).
+    """
+    e = W.engineering_from_compliance(S)  # its axis 1 is the plate normal
+    E_in, nu_in, G_in = e["E2"], e["nu23"], e["G23"]
+    a_in, a_n = (None, None) if alpha is None else alpha
+    if orientation == "random_3d":
+        return isotropic_result(E_in / (3.0 * (1.0 - 2.0 * nu_in)), G_in, model=model,
+                                source=source, alpha=a_in)
+    nu_io = -S.f / W.SQ2 * E_in  # in-plane stress, normal strain
+    return ElasticConstants(E1=E_in, E2=E_in, E3=e["E1"], G12=G_in, G13=e["G12"], G23=e["G12"],
+                            nu12=nu_in, nu13=nu_io, nu23=nu_io, alpha1=a_in, alpha2=a_in,
+                            alpha3=a_n, model=model, source=source)
+
+
+def isotropic_result(
+    K: Array, G: Array, *, model: str, source: str, alpha: Array | None = None
+) -> ElasticConstants:
+    """Isotropic constants from bulk and shear moduli (``extra`` holds K and G).
+
+    Parameters
+    ----------
+    K, G : ndarray, shape (...)
+        Bulk and shear moduli, Pa.
+    model, source : str
+        Model key and published source.
+    alpha : ndarray, optional
+        CTE, 1/K.
+
+    Returns
+    -------
+    ElasticConstants
+        ``E = 9 K G / (3 K + G)``, ``nu = (3 K - 2 G) / (2 (3 K + G))`` on every axis.
+    """
+    E = 9.0 * K * G / (3.0 * K + G)
+    nu = (3.0 * K - 2.0 * G) / (2.0 * (3.0 * K + G))
+    return ElasticConstants(E1=E, E2=E, E3=E, G12=G, G13=G, G23=G, nu12=nu, nu13=nu, nu23=nu,
+                            alpha1=alpha, alpha2=alpha, alpha3=alpha, model=model, source=source,
+                            extra={"K": K, "G": G})
 
 
 def has_cte(f: FibrePhase, m: MatrixPhase) -> bool:

@@ -50,6 +50,7 @@ References
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Any
 
 import numpy as np
@@ -58,8 +59,9 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.errors import FractionError, InputError, InvalidMaterialError
 from micromech.homogenize import _common as cm
 from micromech.homogenize import walpole as W
-from micromech.homogenize.eshelby import polarization
-from micromech.homogenize.thermal import levin
+from micromech.homogenize.eshelby import dilute_concentration, polarization
+from micromech.homogenize.orientation import average, check_orientation_name
+from micromech.homogenize.thermal import levin, levin_fibre
 from micromech.results import ElasticConstants
 
 __all__ = [
@@ -71,6 +73,7 @@ __all__ = [
     "hashin_shtrikman_fibre",
     "hashin_shtrikman_spheroid",
     "fibre_reference_form",
+    "reference_stiffness",
 ]
 
 Array = NDArray[np.float64]
@@ -81,15 +84,21 @@ HS_ISO_SOURCE = "Hashin & Shtrikman (1963) in Walpole's (1966) form; CTE by Levi
 HS_FIBRE_SOURCE = ("Hill (1964) and Hashin (1965): bounds on k23, G12, G23, E1, nu12 and E2 of "
                    "aligned fibres; CTE by Rosen & Hashin (1970)")
 HS_SPHEROID_SOURCE = "Willis (1977) Hashin-Shtrikman bounds for aligned spheroidal statistics"
+AVERAGED_SOURCE = "; fibre {what} averaged over the {orientation} orientations"
 
 
-def _anisotropy(f: Any) -> str:
-    """Describe a fibre's axial and transverse constants (first point of an array) for messages."""
-    def first(x: Any) -> float:
-        return float(np.ravel(x)[0])
+def _isotropic_moduli(f: Any, who: str) -> tuple[Array, Array]:
+    """Bulk and shear moduli of an isotropic inclusion; raise naming ``who`` for any other."""
+    if not f.is_isotropic:
+        def first(x: Any) -> float:
+            return float(np.ravel(x)[0])
 
-    return (f"E1 = {first(f.E1):.4g} Pa, E2 = {first(f.E2):.4g} Pa, nu12 = {first(f.nu12):.4g}, "
-            f"nu23 = {first(f.nu23):.4g}, G12 = {first(f.G12):.4g} Pa")
+        raise InvalidMaterialError(
+            f"{who} (rule: E1 = E2, nu12 = nu23, G12 = E1 / (2 (1 + nu12))); the fibre has "
+            f"E1 = {first(f.E1):.4g} Pa, E2 = {first(f.E2):.4g} Pa, nu12 = {first(f.nu12):.4g}, "
+            f"nu23 = {first(f.nu23):.4g}, G12 = {first(f.G12):.4g} Pa"
+        )
+    return f.E1 / (3.0 * (1.0 - 2.0 * f.nu12)), f.G12
 
 
 def _phase_fractions(fractions: ArrayLike, n: int) -> Array:
@@ -105,6 +114,14 @@ def _phase_fractions(fractions: ArrayLike, n: int) -> Array:
         first = float(np.asarray(total)[bad].flat[0]) if total.ndim else float(total)
         raise FractionError(f"fractions sum to {first!r}, must sum to 1")
     return c
+
+
+def _phase_stiffnesses(stiffnesses: ArrayLike, fractions: ArrayLike) -> tuple[Array, Array]:
+    """Check N phase stiffnesses and fractions; return them, the fractions shaped (N, ..., 1, 1)."""
+    C = np.asarray(stiffnesses, dtype=np.float64)
+    if C.ndim < 3 or C.shape[-2:] != (6, 6):
+        raise InputError(f"stiffnesses: expected shape (N, ..., 6, 6), got {C.shape}")
+    return C, _phase_fractions(fractions, C.shape[0])[..., None, None]
 
 
 def voigt_bound(stiffnesses: ArrayLike, fractions: ArrayLike) -> Array:
@@ -140,11 +157,8 @@ def voigt_bound(stiffnesses: ArrayLike, fractions: ArrayLike) -> Array:
     >>> round(float(C[3, 3]) / 1e9, 4)  # (70 / 2.6 + 3 / 2.6) / 2 GPa
     14.0385
     """
-    C = np.asarray(stiffnesses, dtype=np.float64)
-    if C.ndim < 3 or C.shape[-2:] != (6, 6):
-        raise InputError(f"stiffnesses: expected shape (N, ..., 6, 6), got {C.shape}")
-    c = _phase_fractions(fractions, C.shape[0])
-    return np.asarray(np.sum(c[..., None, None] * C, axis=0))
+    C, c = _phase_stiffnesses(stiffnesses, fractions)
+    return np.asarray(np.sum(c * C, axis=0))
 
 
 def reuss_bound(stiffnesses: ArrayLike, fractions: ArrayLike) -> Array:
@@ -180,17 +194,20 @@ def reuss_bound(stiffnesses: ArrayLike, fractions: ArrayLike) -> Array:
     >>> round(float(C[3, 3]) / 1e9, 4)  # 1 / (0.5 / (70 / 2.6) + 0.5 / (3 / 2.6)) GPa
     2.2129
     """
-    C = np.asarray(stiffnesses, dtype=np.float64)
-    if C.ndim < 3 or C.shape[-2:] != (6, 6):
-        raise InputError(f"stiffnesses: expected shape (N, ..., 6, 6), got {C.shape}")
-    c = _phase_fractions(fractions, C.shape[0])
-    return np.asarray(np.linalg.inv(np.sum(c[..., None, None] * np.linalg.inv(C), axis=0)))
+    C, c = _phase_stiffnesses(stiffnesses, fractions)
+    return np.asarray(np.linalg.inv(np.sum(c * np.linalg.inv(C), axis=0)))
 
 
 def voigt_reuss(
-    fibre: Any, matrix: Any, vf: ArrayLike, *, void_fraction: ArrayLike = 0.0
+    fibre: Any, matrix: Any, vf: ArrayLike, *, void_fraction: ArrayLike = 0.0,
+    orientation: str = "aligned",
 ) -> tuple[ElasticConstants, ElasticConstants | None]:
     """Voigt and Reuss bounds of a fibre and a matrix, in closed transversely isotropic form.
+
+    Voigt: ``c1 <C1> + c0 C0``; Reuss: ``(c1 <S1> + c0 S0)^-1``, with ``< >`` the average of
+    the fibre stiffness or compliance over the fibre orientations (none for aligned fibres;
+    :mod:`.orientation`). Uniform strain and uniform stress trial fields make them bounds for
+    any arrangement (Hill 1952).
 
     Parameters
     ----------
@@ -202,22 +219,28 @@ def voigt_reuss(
         Fibre volume fraction, in [0, 1].
     void_fraction : array_like, shape (...)
         Void fraction (zero stiffness); with voids the Reuss bound is zero and None is returned.
+    orientation : {"aligned", "random_in_plane", "random_3d"}
+        Fibres along axis 1, random in the 1-2 plane (axis 3 the normal) or random in space.
 
     Returns
     -------
     voigt, reuss : ElasticConstants (reuss None with voids)
         Upper and lower bounds on the moduli (the Poisson ratios are those of the bounding
-        tensors, not bounds). No CTE: for fibres the uniform-field CTEs do not bound the
-        transverse CTE, which can exceed both phases' values.
+        tensors, not bounds), in the composite's axes: transversely isotropic about axis 1
+        (aligned; ``extra`` holds k23) or axis 3 (random in plane), or isotropic (random in
+        space). No CTE: for fibres the uniform-field CTEs do not bound the transverse CTE,
+        which can exceed both phases' values.
 
     Raises
     ------
     FractionError
         If a fraction is outside [0, 1] or vf + void_fraction > 1.
+    InputError
+        For an unknown orientation.
 
     References
     ----------
-    Voigt (1889); Reuss (1929); Hill (1952).
+    Voigt (1889); Reuss (1929); Hill (1952); orientation averages: Advani and Tucker (1987).
 
     Examples
     --------
@@ -226,20 +249,27 @@ def voigt_reuss(
     >>> round(float(V.G12) / 1e9, 4), round(float(R.G12) / 1e9, 4)
     (18.2234, 3.0404)
     """
+    check_orientation_name(orientation)
     f, m = cm.phases(fibre, matrix)
-    c = cm.fraction(vf)
-    cv = cm.fraction(void_fraction, "void_fraction")
-    if np.any(c + cv > 1.0 + 1e-12):
-        raise FractionError(f"vf + void_fraction = {float(np.max(c + cv))!r} exceeds 1")
+    c, cv, voids = cm.void_fractions(vf, void_fraction)
     c0 = 1.0 - c - cv
     Cf, Cm = cm.fibre_tensor(f), cm.matrix_tensor(m)
-    CV = W.add(W.scale(Cf, c), W.scale(Cm, c0))
-    voigt = cm.ti_result(CV, model="voigt", source=VOIGT_SOURCE)
-    if np.any(cv > 0.0):
+    CV = W.add(W.scale(average(Cf, orientation), c), W.scale(Cm, c0))
+    voigt = _oriented_result(CV, None, orientation, "voigt", VOIGT_SOURCE, "stiffness")
+    if voids:
         return voigt, None
-    SR = W.add(W.scale(W.inv(Cf), c), W.scale(W.inv(Cm), c0))
-    reuss = cm.ti_result(W.inv(SR), model="reuss", source=REUSS_SOURCE, S=SR)
-    return voigt, reuss
+    SR = W.add(W.scale(average(W.inv(Cf), orientation), c), W.scale(W.inv(Cm), c0))
+    return voigt, _oriented_result(None, SR, orientation, "reuss", REUSS_SOURCE, "compliance")
+
+
+def _oriented_result(
+    C: W.TI | None, S: W.TI | None, orientation: str, model: str, source: str, averaged: str
+) -> ElasticConstants:
+    """Constants of a bound given by its stiffness C or its compliance S, in composite axes."""
+    if orientation == "aligned":
+        return cm.ti_result(W.inv(S) if C is None else C, model=model, source=source, S=S)
+    source += AVERAGED_SOURCE.format(what=averaged, orientation=orientation)
+    return cm.normal_result(W.inv(C) if S is None else S, orientation, model=model, source=source)
 
 
 def hashin_shtrikman_isotropic(
@@ -297,15 +327,6 @@ def hashin_shtrikman_isotropic(
     return out
 
 
-def _iso_constants(K: Array, G: Array, alpha: Array | None, model: str, source: str,
-                   poisson: bool = True) -> ElasticConstants:
-    E = 9.0 * K * G / (3.0 * K + G)
-    nu = (3.0 * K - 2.0 * G) / (2.0 * (3.0 * K + G)) if poisson else None
-    return ElasticConstants(E1=E, E2=E, E3=E, G12=G, G13=G, G23=G, nu12=nu, nu13=nu, nu23=nu,
-                            alpha1=alpha, alpha2=alpha, alpha3=alpha, model=model, source=source,
-                            extra={"K": K, "G": G})
-
-
 def hashin_shtrikman(
     fibre: Any, matrix: Any, vf: ArrayLike
 ) -> tuple[ElasticConstants, ElasticConstants]:
@@ -343,14 +364,9 @@ def hashin_shtrikman(
     (5.885, 11.057)
     """
     f, m = cm.phases(fibre, matrix)
-    if not f.is_isotropic:
-        raise InvalidMaterialError(
-            "hashin_shtrikman: the isotropic bounds need an isotropic inclusion (rule: E1 = E2, "
-            f"nu12 = nu23, G12 = E1 / (2 (1 + nu12))); the fibre has {_anisotropy(f)}"
-        )
+    Kf, Gf = _isotropic_moduli(
+        f, "hashin_shtrikman: the isotropic bounds need an isotropic inclusion")
     c = cm.fraction(vf)
-    Kf = f.E1 / (3.0 * (1.0 - 2.0 * f.nu12))
-    Gf = f.G12
     Kf, Km, Gf, Gm, cc = np.broadcast_arrays(Kf, m.K, Gf, m.G, c)
     b = hashin_shtrikman_isotropic(np.stack([Kf, Km]), np.stack([Gf, Gm]), np.stack([cc, 1 - cc]))
     aL = aU = None
@@ -358,8 +374,10 @@ def hashin_shtrikman(
         x = levin(Kf, Km, f.alpha1, m.alpha, c, b["K_lower"])  # type: ignore[arg-type]
         y = levin(Kf, Km, f.alpha1, m.alpha, c, b["K_upper"])  # type: ignore[arg-type]
         aL, aU = np.minimum(x, y), np.maximum(x, y)
-    lower = _iso_constants(b["K_lower"], b["G_lower"], aL, "hashin_shtrikman_lower", HS_ISO_SOURCE)
-    upper = _iso_constants(b["K_upper"], b["G_upper"], aU, "hashin_shtrikman_upper", HS_ISO_SOURCE)
+    lower = cm.isotropic_result(b["K_lower"], b["G_lower"], model="hashin_shtrikman_lower",
+                                source=HS_ISO_SOURCE, alpha=aL)
+    upper = cm.isotropic_result(b["K_upper"], b["G_upper"], model="hashin_shtrikman_upper",
+                                source=HS_ISO_SOURCE, alpha=aU)
     return lower, upper
 
 
@@ -413,12 +431,26 @@ def fibre_reference_form(
             "nu23": E2 / (2.0 * G23) - 1.0}
 
 
-def _block_compliance(k: Array, E1: Array, nu12: Array) -> W.TI:
-    """Compliance with the axial/transverse-dilatation block of (k23, E1, nu12); g, h unused."""
-    l = 2.0 * k * nu12
-    n = E1 + l * l / k
-    one = np.ones_like(k)
-    return W.inv(W.TI(2.0 * k, n, W.SQ2 * l, W.SQ2 * l, one, one))
+def reference_stiffness(b: dict[str, Array]) -> W.TI:
+    """Stiffness with the k23, E1, nu12, G23 and G12 of :func:`fibre_reference_form`.
+
+    Parameters
+    ----------
+    b : dict of str to ndarray
+        The moduli returned by :func:`fibre_reference_form`, Pa.
+
+    Returns
+    -------
+    walpole.TI
+        Hill's moduli ``(k, l, n, m, p)`` with ``l = 2 k nu12`` and ``n = E1 + l^2 / k``, Pa.
+
+    References
+    ----------
+    Hill (1964), the connections between k, l, n and E1, nu12.
+    """
+    k = b["k23"]
+    l = 2.0 * k * b["nu12"]
+    return W.from_hill(k, l, b["E1"] + l * l / k, b["G23"], b["G12"])
 
 
 def hashin_shtrikman_fibre(
@@ -467,10 +499,8 @@ def hashin_shtrikman_fibre(
     aL: tuple[Array, Array] | None = None
     aU: tuple[Array, Array] | None = None
     if cm.has_cte(f, m):
-        Sf, Sm = W.inv(cm.fibre_tensor(f)), W.inv(cm.matrix_tensor(m))
-        args = (f.alpha1, f.alpha2, m.alpha, m.alpha)
-        x = cm.levin_block(_block_compliance(lo["k23"], lo["E1"], lo["nu12"]), Sf, Sm, c, *args)  # type: ignore[arg-type]
-        y = cm.levin_block(_block_compliance(hi["k23"], hi["E1"], hi["nu12"]), Sf, Sm, c, *args)  # type: ignore[arg-type]
+        x = levin_fibre(W.inv(reference_stiffness(lo)), f, m, c)
+        y = levin_fibre(W.inv(reference_stiffness(hi)), f, m, c)
         aL = (np.minimum(x[0], y[0]), np.minimum(x[1], y[1]))
         aU = (np.maximum(x[0], y[0]), np.maximum(x[1], y[1]))
 
@@ -534,15 +564,9 @@ def hashin_shtrikman_spheroid(
     (8.402, 16.129)
     """
     f, m = cm.phases(fibre, matrix)
-    if not f.is_isotropic:
-        raise InvalidMaterialError(
-            "hashin_shtrikman_spheroid: needs an isotropic inclusion (rule: E1 = E2, "
-            f"nu12 = nu23, G12 = E1 / (2 (1 + nu12))); the fibre has {_anisotropy(f)}"
-        )
+    Kf, Gf = _isotropic_moduli(f, "hashin_shtrikman_spheroid: needs an isotropic inclusion")
     c = cm.fraction(vf)
     d = 1.0 - c
-    Kf = f.E1 / (3.0 * (1.0 - 2.0 * f.nu12))
-    Gf = f.G12
     Cf, Cm = W.isotropic(Kf, Gf), W.isotropic(m.K, m.G)
     out = []
     sides = ((np.minimum, "hashin_shtrikman_lower"), (np.maximum, "hashin_shtrikman_upper"))
@@ -550,13 +574,11 @@ def hashin_shtrikman_spheroid(
         K0, G0 = pick(Kf, m.K), pick(Gf, m.G)
         C0 = W.isotropic(K0, G0)
         P = polarization(K0, G0, aspect_ratio)
-        Tf = W.inv(W.add(W.identity(), W.dot(P, W.sub(Cf, C0))))
-        Tm = W.inv(W.add(W.identity(), W.dot(P, W.sub(Cm, C0))))
+        Tf, Tm = dilute_concentration(P, Cf, C0), dilute_concentration(P, Cm, C0)
         num = W.add(W.scale(W.dot(Cf, Tf), c), W.scale(W.dot(Cm, Tm), d))
         den = W.add(W.scale(Tf, c), W.scale(Tm, d))
         C = W.dot(num, W.inv(den))
         C = W.TI(C.c, C.d, 0.5 * (C.e + C.f), 0.5 * (C.e + C.f), C.g, C.h)
         r = cm.ti_result(C, model=key, source=HS_SPHEROID_SOURCE)
-        out.append(ElasticConstants(E1=r.E1, E2=r.E2, E3=r.E3, G12=r.G12, G13=r.G13, G23=r.G23,
-                                    model=key, source=HS_SPHEROID_SOURCE, extra=r.extra))
+        out.append(replace(r, nu12=None, nu13=None, nu23=None))  # Poisson ratios: not bounded
     return out[0], out[1]

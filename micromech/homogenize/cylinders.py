@@ -37,7 +37,8 @@ from numpy.typing import ArrayLike
 
 from micromech.homogenize import _common as cm
 from micromech.homogenize import walpole as W
-from micromech.homogenize.bounds import fibre_reference_form
+from micromech.homogenize.bounds import fibre_reference_form, reference_stiffness
+from micromech.homogenize.thermal import levin_fibre
 from micromech.results import ElasticConstants
 
 __all__ = ["cylinders"]
@@ -76,15 +77,7 @@ def cylinders(fibre: Any, matrix: Any, vf: ArrayLike) -> ElasticConstants:
     """
     f, m = cm.phases(fibre, matrix)
     c = cm.fraction(vf)
-    b = fibre_reference_form(f, m, c, m.G, m.k23, m.G)
-    k, E1, nu12 = b["k23"], b["E1"], b["nu12"]
-    l = 2.0 * k * nu12
-    C = W.from_hill(k, l, E1 + l * l / k, b["G23"], b["G12"])
+    C = reference_stiffness(fibre_reference_form(f, m, c, m.G, m.k23, m.G))
     S = W.inv(C)
-    alpha = None
-    if cm.has_cte(f, m):
-        alpha = cm.levin_block(
-            S, W.inv(cm.fibre_tensor(f)), W.inv(cm.matrix_tensor(m)), c,
-            f.alpha1, f.alpha2, m.alpha, m.alpha,  # type: ignore[arg-type]
-        )
+    alpha = levin_fibre(S, f, m, c) if cm.has_cte(f, m) else None
     return cm.ti_result(C, model="cylinders", source=SOURCE, alpha=alpha, S=S)

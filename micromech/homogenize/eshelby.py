@@ -39,6 +39,7 @@ __all__ = [
     "eshelby_sphere",
     "eshelby_cylinder",
     "polarization",
+    "dilute_concentration",
     "shape_function",
 ]
 
@@ -279,3 +280,27 @@ def polarization(K0: ArrayLike, G0: ArrayLike, aspect_ratio: ArrayLike | None) -
     else:
         S = eshelby_spheroid(nu0, aspect_ratio)
     return W.dot(S, W.inv(W.isotropic(K0, G0)))
+
+
+def dilute_concentration(P: W.TI, C: W.TI, C0: W.TI) -> W.TI:
+    """Strain concentration ``[I + P : (C - C0)]^-1`` of one inclusion in a reference medium.
+
+    Parameters
+    ----------
+    P : walpole.TI
+        Polarisation tensor of the inclusion shape in the medium (:func:`polarization`), 1/Pa.
+    C, C0 : walpole.TI
+        Stiffness of the inclusion and of the medium, Pa.
+
+    Returns
+    -------
+    walpole.TI
+        The dilute strain concentration tensor (dimensionless).
+
+    References
+    ----------
+    Eshelby (1957); Hill (1965) (see :func:`polarization`); Benveniste, Y. (1987). A new
+    approach to the application of Mori-Tanaka's theory in composite materials. *Mech. Mater.*
+    6, 147-157, Eq. 9.
+    """
+    return W.inv(W.add(W.identity(), W.dot(P, W.sub(C, C0))))

@@ -61,8 +61,8 @@ from numpy.typing import NDArray
 from micromech import tensors
 from micromech.errors import InvalidMaterialError
 from micromech.homogenize import _common as cm
-from micromech.homogenize import walpole as W
 from micromech.homogenize.bounds import (
+    AVERAGED_SOURCE,
     REUSS_SOURCE,
     VOIGT_SOURCE,
     hashin_shtrikman,
@@ -74,7 +74,6 @@ from micromech.homogenize.chamis import chamis
 from micromech.homogenize.cylinders import cylinders
 from micromech.homogenize.halpin_tsai import halpin_tsai
 from micromech.homogenize.mori_tanaka import mori_tanaka
-from micromech.homogenize.orientation import average_3d, average_planar
 from micromech.homogenize.rule_of_mixtures import rule_of_mixtures
 from micromech.homogenize.strength import CAUTION, StrengthEstimate, strength_estimates
 from micromech.results import ElasticConstants
@@ -99,7 +98,6 @@ ALIGNED_ONLY: tuple[str, ...] = ("rule_of_mixtures", "halpin_tsai", "chamis", "c
 #: memory), applied from aspect ratio 10 on (common practice, no source).
 RANDOM_ROD_CONTACT = 5.4
 RANDOM_ROD_MIN_ASPECT = 10.0
-_AVERAGED = "; fibre {what} averaged over the {orientation} orientations"
 _HS_RANDOM = ("; rigorous for any statistically isotropic two-phase composite of isotropic "
               "phases, whatever the inclusion shape (Hashin & Shtrikman 1963)")
 
@@ -229,8 +227,8 @@ def _generic_voigt_reuss(
     if orientation != "aligned":
         Cf, Sf = (_orientation_average_6x6(Cf, orientation),
                   _orientation_average_6x6(Sf, orientation, compliance=True))
-        vs += _AVERAGED.format(what="stiffness", orientation=orientation)
-        rs += _AVERAGED.format(what="compliance", orientation=orientation)
+        vs += AVERAGED_SOURCE.format(what="stiffness", orientation=orientation)
+        rs += AVERAGED_SOURCE.format(what="compliance", orientation=orientation)
     c = vf[..., None, None]
     c0 = (1.0 - vf - vv)[..., None, None]
     out = {"voigt": ElasticConstants.from_stiffness(c * Cf + c0 * Cm, model="voigt", source=vs)}
@@ -240,91 +238,81 @@ def _generic_voigt_reuss(
     return out
 
 
-def _about_normal(S: W.TI, orientation: str, model: str, source: str) -> ElasticConstants:
-    """Constants of a compliance transversely isotropic about the plate normal (axis 3).
-
-    For ``random_3d`` the compliance is isotropic and so are the constants (``extra`` has K, G).
-    """
-    E_in = 2.0 / (S.c + S.g)
-    nu_in = (S.g - S.c) / (S.c + S.g)
-    G_in = 0.5 / S.g
+def _hashin_shtrikman(
+    f: Any, m: Any, vf: Array, voids: bool, inclusion: str, ar: Any, orientation: str,
+) -> tuple[tuple[ElasticConstants, ElasticConstants] | None, str]:
+    """Return the Hashin-Shtrikman pair that applies (module tables), or None and why not."""
+    if voids:
+        return None, "not computed with voids (the lower bound is zero)"
+    if orientation == "random_in_plane":
+        return None, ("not for in-plane random fibres: the fibre (Hill 1964, Hashin 1965) and "
+                      "spheroid (Willis 1977) forms assume aligned inclusions and the isotropic "
+                      "form an isotropic composite; the orientation-averaged Voigt and Reuss "
+                      "bounds hold")
     if orientation == "random_3d":
-        K = E_in / (3.0 * (1.0 - 2.0 * nu_in))
-        return ElasticConstants(E1=E_in, E2=E_in, E3=E_in, G12=G_in, G13=G_in, G23=G_in,
-                                nu12=nu_in, nu13=nu_in, nu23=nu_in, model=model, source=source,
-                                extra={"K": K, "G": G_in})
-    G_out = 0.5 / S.h
-    nu_io = -S.f / W.SQ2 * E_in
-    return ElasticConstants(E1=E_in, E2=E_in, E3=1.0 / S.d, G12=G_in, G13=G_out, G23=G_out,
-                            nu12=nu_in, nu13=nu_io, nu23=nu_io, model=model, source=source)
+        if not f.is_isotropic:
+            return None, ("random_3d: the isotropic bounds need isotropic fibre and matrix; for "
+                          "anisotropic fibres only the orientation-averaged Voigt and Reuss "
+                          "bounds hold")
+        lo, hi = hashin_shtrikman(f, m, vf)
+        return (replace(lo, source=lo.source + _HS_RANDOM),
+                replace(hi, source=hi.source + _HS_RANDOM)), ""
+    if inclusion == "continuous":
+        return hashin_shtrikman_fibre(f, m, vf), ""
+    if not f.is_isotropic:
+        return None, "needs isotropic particles for spheres and spheroids"
+    if inclusion == "sphere":
+        return hashin_shtrikman(f, m, vf), ""
+    return hashin_shtrikman_spheroid(f, m, vf, ar), ""
 
 
-def _oriented_voigt_reuss(
-    f: Any, m: Any, vf: Array, vv: Array, orientation: str
-) -> tuple[ElasticConstants, ElasticConstants | None]:
-    """Voigt and Reuss bounds of randomly oriented fibres in closed Walpole form.
-
-    Voigt: ``c1 <C1> + c0 C0``; Reuss: ``(c1 <S1> + c0 S0)^-1``, with ``< >`` the orientation
-    average (in plane or in space) of the fibre stiffness or compliance (Hill 1952; averages
-    as in :mod:`.orientation`).
-    """
-    avg = average_3d if orientation == "random_3d" else average_planar
-    C1 = cm.fibre_tensor(f)
-    C0 = cm.matrix_tensor(m)
-    c0 = 1.0 - vf - vv
-    CV = W.add(W.scale(avg(C1), vf), W.scale(C0, c0))
-    voigt = _about_normal(W.inv(CV), orientation, "voigt",
-                          VOIGT_SOURCE + _AVERAGED.format(what="stiffness",
-                                                          orientation=orientation))
-    if np.any(vv > 0.0):
-        return voigt, None
-    SR = W.add(W.scale(avg(W.inv(C1)), vf), W.scale(W.inv(C0), c0))
-    reuss = _about_normal(SR, orientation, "reuss",
-                          REUSS_SOURCE + _AVERAGED.format(what="compliance",
-                                                          orientation=orientation))
-    return voigt, reuss
-
-
-def _random_estimates(
+def _phase_estimates(
     f: Any, m: Any, vf: Array, vv: Array, inclusion: str, ar: Any, orientation: str,
 ) -> tuple[dict[str, ElasticConstants], dict[str, str]]:
-    """Models and notes for randomly oriented fibres (see the module table)."""
+    """Models and notes for a fibre phase and an isotropic matrix (see the module tables)."""
     models: dict[str, ElasticConstants] = {}
     notes: dict[str, str] = {}
+    aligned = orientation == "aligned"
     voids = bool(np.any(vv > 0.0))
-    V, R = _oriented_voigt_reuss(f, m, vf, vv, orientation)
+    V, R = voigt_reuss(f, m, vf, void_fraction=vv, orientation=orientation)
     models["voigt"] = V
     if R is not None:
         models["reuss"] = R
     else:
         notes["reuss"] = "zero with voids"
-    if voids:
-        why_hs = "not computed with voids (the lower bound is zero)"
-    elif orientation == "random_in_plane":
-        why_hs = ("not for in-plane random fibres: the fibre (Hill 1964, Hashin 1965) and "
-                  "spheroid (Willis 1977) forms assume aligned inclusions and the isotropic form "
-                  "an isotropic composite; the orientation-averaged Voigt and Reuss bounds hold")
-    elif not f.is_isotropic:
-        why_hs = ("random_3d: the isotropic bounds need isotropic fibre and matrix; for "
-                  "anisotropic fibres only the orientation-averaged Voigt and Reuss bounds hold")
+    hs, why_hs = _hashin_shtrikman(f, m, vf, voids, inclusion, ar, orientation)
+    if hs is not None:
+        models["hashin_shtrikman_lower"], models["hashin_shtrikman_upper"] = hs
     else:
-        why_hs = ""
-        lo, hi = hashin_shtrikman(f, m, vf)
-        models["hashin_shtrikman_lower"] = replace(lo, source=lo.source + _HS_RANDOM)
-        models["hashin_shtrikman_upper"] = replace(hi, source=hi.source + _HS_RANDOM)
-    if why_hs:
         notes["hashin_shtrikman_lower"] = notes["hashin_shtrikman_upper"] = why_hs
-    for k in ALIGNED_ONLY:
-        notes[k] = f"assumes aligned fibres; not applied with orientation = {orientation}"
-    if orientation == "random_3d" and ar is not None:
-        rods = np.asarray(ar, dtype=np.float64) >= RANDOM_ROD_MIN_ASPECT
-        limit = RANDOM_ROD_CONTACT / np.asarray(ar, dtype=np.float64)
-        if np.any(rods & (vf > limit)):
-            notes["packing"] = (
-                f"rods of aspect ratio {float(np.max(ar)):g} random in space pack only up to "
-                f"about {RANDOM_ROD_CONTACT:g} / aspect ratio = {float(np.min(limit)):.3g} "
-                "(random contact equation, Philipse 1996, from memory); the fibre fraction "
-                "exceeds it: such a composite cannot be fully random in space")
+
+    if not aligned:
+        for k in ALIGNED_ONLY:
+            notes[k] = f"assumes aligned fibres; not applied with orientation = {orientation}"
+        if orientation == "random_3d" and ar is not None:
+            rods = np.asarray(ar, dtype=np.float64) >= RANDOM_ROD_MIN_ASPECT
+            limit = RANDOM_ROD_CONTACT / np.asarray(ar, dtype=np.float64)
+            if np.any(rods & (vf > limit)):
+                notes["packing"] = (
+                    f"rods of aspect ratio {float(np.max(ar)):g} random in space pack only up "
+                    f"to about {RANDOM_ROD_CONTACT:g} / aspect ratio = {float(np.min(limit)):.3g} "
+                    "(random contact equation, Philipse 1996, from memory); the fibre fraction "
+                    "exceeds it: such a composite cannot be fully random in space")
+    elif inclusion == "continuous" and not voids:
+        models["rule_of_mixtures"] = rule_of_mixtures(f, m, vf)
+        models["halpin_tsai"] = halpin_tsai(f, m, vf)
+        models["chamis"] = chamis(f, m, vf)
+        models["cylinders"] = cylinders(f, m, vf)
+    else:
+        why = "with voids" if voids else f"for {inclusion} inclusions"
+        for k in ("rule_of_mixtures", "chamis", "cylinders"):
+            notes[k] = f"continuous fibres only; not applied {why}"
+        if inclusion == "spheroid" and not voids and np.all(np.asarray(ar) >= 1.0):
+            models["halpin_tsai"] = halpin_tsai(f, m, vf, aspect_ratio=ar)
+        else:
+            notes["halpin_tsai"] = (
+                f"continuous or short fibres (aspect ratio >= 1) without voids; not applied {why}")
+
     models["mori_tanaka"] = mori_tanaka(
         f, m, vf, inclusion,  # type: ignore[arg-type]
         None if inclusion == "continuous" else ar, orientation=orientation,  # type: ignore[arg-type]
@@ -381,79 +369,27 @@ def estimate(
     """
     vf = np.asarray(composite.volume_fraction, dtype=np.float64)
     vv = np.asarray(getattr(composite, "void_fraction", 0.0), dtype=np.float64)
-    inclusion = getattr(composite, "inclusion", "continuous")
-    ar = getattr(composite, "aspect_ratio", None)
     orientation = getattr(composite, "orientation", "aligned")
-    voids = bool(np.any(vv > 0.0))
     name = case if case is not None else getattr(composite, "name", "")
-    models: dict[str, ElasticConstants] = {}
-    notes: dict[str, str] = {}
-
+    elastic: ElasticConstants | None = None
     try:
         f, m = cm.phases(composite.fibre, composite.matrix)
     except InvalidMaterialError as exc:
         if not (hasattr(composite.fibre, "stiffness") and hasattr(composite.matrix, "stiffness")):
             raise
-        models.update(_generic_voigt_reuss(composite, vf, vv, orientation))
-        for k in MODEL_KEYS[2:]:
-            notes[k] = f"needs an isotropic matrix and a transversely isotropic fibre ({exc})"
-        st = strength_estimates(composite, misalignment_deg=misalignment_deg) if strengths else {}
-        return Estimates(composite, models, _strengths_for(st, orientation, notes), notes, name)
-
-    if orientation != "aligned":
-        models, notes = _random_estimates(f, m, vf, vv, inclusion, ar, orientation)
-        ordered = {k: models[k] for k in MODEL_KEYS if k in models}
-        st = {}
-        if strengths:
-            st = strength_estimates(composite, elastic=ordered["mori_tanaka"],
-                                    misalignment_deg=misalignment_deg)
-        return Estimates(composite, ordered, _strengths_for(st, orientation, notes), notes, name)
-
-    V, R = voigt_reuss(f, m, vf, void_fraction=vv)
-    models["voigt"] = V
-    if R is not None:
-        models["reuss"] = R
+        models = _generic_voigt_reuss(composite, vf, vv, orientation)
+        notes = {k: f"needs an isotropic matrix and a transversely isotropic fibre ({exc})"
+                 for k in MODEL_KEYS[2:]}
     else:
-        notes["reuss"] = "zero with voids"
-
-    if voids:
-        notes["hashin_shtrikman_lower"] = notes["hashin_shtrikman_upper"] = (
-            "not computed with voids (the lower bound is zero)")
-    elif inclusion == "continuous":
-        models["hashin_shtrikman_lower"], models["hashin_shtrikman_upper"] = (
-            hashin_shtrikman_fibre(f, m, vf))
-    elif f.is_isotropic:
-        lo, hi = (hashin_shtrikman(f, m, vf) if inclusion == "sphere"
-                  else hashin_shtrikman_spheroid(f, m, vf, ar))  # type: ignore[arg-type]
-        models["hashin_shtrikman_lower"], models["hashin_shtrikman_upper"] = lo, hi
-    else:
-        notes["hashin_shtrikman_lower"] = notes["hashin_shtrikman_upper"] = (
-            "needs isotropic particles for spheres and spheroids")
-
-    if inclusion == "continuous" and not voids:
-        models["rule_of_mixtures"] = rule_of_mixtures(f, m, vf)
-        models["halpin_tsai"] = halpin_tsai(f, m, vf)
-        models["chamis"] = chamis(f, m, vf)
-        models["cylinders"] = cylinders(f, m, vf)
-    else:
-        why = "with voids" if voids else f"for {inclusion} inclusions"
-        for k in ("rule_of_mixtures", "chamis", "cylinders"):
-            notes[k] = f"continuous fibres only; not applied {why}"
-        if inclusion == "spheroid" and not voids and np.all(np.asarray(ar) >= 1.0):
-            models["halpin_tsai"] = halpin_tsai(f, m, vf, aspect_ratio=ar)
-        else:
-            notes["halpin_tsai"] = (
-                f"continuous or short fibres (aspect ratio >= 1) without voids; not applied {why}")
-
-    models["mori_tanaka"] = mori_tanaka(
-        f, m, vf, inclusion,  # type: ignore[arg-type]
-        None if inclusion == "continuous" else ar, void_fraction=vv)
+        models, notes = _phase_estimates(
+            f, m, vf, vv, getattr(composite, "inclusion", "continuous"),
+            getattr(composite, "aspect_ratio", None), orientation)
+        elastic = models["mori_tanaka"]
     ordered = {k: models[k] for k in MODEL_KEYS if k in models}
     st = {}
     if strengths:
-        st = strength_estimates(composite, elastic=ordered["mori_tanaka"],
-                                misalignment_deg=misalignment_deg)
-    return Estimates(composite, ordered, st, notes, name)
+        st = strength_estimates(composite, elastic=elastic, misalignment_deg=misalignment_deg)
+    return Estimates(composite, ordered, _strengths_for(st, orientation, notes), notes, name)
 
 
 def _strengths_for(

@@ -52,11 +52,11 @@ from typing import Any, Literal
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from micromech.errors import FractionError, InputError
+from micromech.errors import InputError
 from micromech.homogenize import _common as cm
 from micromech.homogenize import walpole as W
-from micromech.homogenize.eshelby import polarization
-from micromech.homogenize.orientation import average_3d, average_planar
+from micromech.homogenize.eshelby import dilute_concentration, polarization
+from micromech.homogenize.orientation import ORIENTATIONS, average, check_orientation_name
 from micromech.results import ElasticConstants
 
 __all__ = ["mori_tanaka", "INCLUSIONS", "ORIENTATIONS", "inclusion_aspect_ratio"]
@@ -64,7 +64,6 @@ __all__ = ["mori_tanaka", "INCLUSIONS", "ORIENTATIONS", "inclusion_aspect_ratio"
 Array = NDArray[np.float64]
 
 INCLUSIONS: tuple[str, ...] = ("continuous", "spheroid", "sphere")
-ORIENTATIONS: tuple[str, ...] = ("aligned", "random_in_plane", "random_3d")
 
 RANDOM_SOURCE = "; orientation average of the aligned stiffness and thermal stress (Advani & " \
     "Tucker 1987; Tucker & Liang 1999)"
@@ -172,31 +171,20 @@ def mori_tanaka(
     >>> round(float(r.E1) / 1e9, 2)  # rule of mixtures 44.60 plus the Poisson term
     44.62
     """
-    if orientation not in ORIENTATIONS:
-        raise InputError(
-            f"orientation = {orientation!r}: expected one of {', '.join(ORIENTATIONS)}"
-        )
+    check_orientation_name(orientation)
     ar = inclusion_aspect_ratio(inclusion, aspect_ratio)
     f, m = cm.phases(fibre, matrix)
-    c1 = cm.fraction(vf, "vf")
-    cv = cm.fraction(void_fraction, "void_fraction")
-    has_voids = bool(np.any(cv > 0.0))
-    if has_voids:
-        total = c1 + cv
-        if np.any(total > 1.0 + 1e-12):
-            raise FractionError(
-                f"vf + void_fraction = {float(np.max(total))!r} exceeds 1"
-            )
-    c0 = 1.0 - c1 - cv if has_voids else 1.0 - c1
+    c1, cv, has_voids = cm.void_fractions(vf, void_fraction)
 
     C0 = cm.matrix_tensor(m)
     C1 = cm.fibre_tensor(f)
     K0, G0 = m.K, m.G
     P = polarization(K0, G0, ar)
-    A1 = W.inv(W.add(W.identity(), W.dot(P, W.sub(C1, C0))))
+    A1 = dilute_concentration(P, C1, C0)
     B1 = W.dot(C1, A1)
 
     if has_voids:
+        c0 = 1.0 - c1 - cv
         num = W.add(W.scale(C0, c0), W.scale(B1, c1))
         den = W.TI(c0 + c1 * A1.c, c0 + c1 * A1.d, c1 * A1.e, c1 * A1.f, c0 + c1 * A1.g,
                    c0 + c1 * A1.h)
@@ -242,9 +230,8 @@ def _random_result(
     The averaged tensor is transversely isotropic about the plane normal (in-plane random, the
     normal is axis 3) or isotropic (random in space).
     """
-    C = average_3d(C_aligned) if orientation == "random_3d" else average_planar(C_aligned)
-    S = W.inv(C)
-    a_in = a_ax = None
+    C = average(C_aligned, orientation)
+    a_avg = None
     if alpha is not None:
         # thermal stress beta = C : alpha of the aligned composite, averaged; alpha = <C>^-1 <beta>
         t0, t1 = cm.thermal_vector(alpha[0], alpha[1])
@@ -256,22 +243,6 @@ def _random_result(
         else:
             bt, ba = 0.5 * (bt + ba), bt  # in-plane, normal
         x0, x1 = cm.solve_block(C, W.SQ2 * bt, ba)
-        a_in, a_ax = x0 / W.SQ2, x1
-    E_ax = 1.0 / S.d
-    E_in = 2.0 / (S.c + S.g)
-    nu_in = (S.g - S.c) / (S.c + S.g)
-    G_in = 0.5 / S.g
-    G_out = 0.5 / S.h
-    nu_io = -S.f / W.SQ2 * E_in
-    src = SOURCE + RANDOM_SOURCE
-    label = "mori_tanaka"
-    if orientation == "random_3d":
-        return ElasticConstants(
-            E1=E_in, E2=E_in, E3=E_in, G12=G_in, G13=G_in, G23=G_in, nu12=nu_in, nu13=nu_in,
-            nu23=nu_in, alpha1=a_in, alpha2=a_in, alpha3=a_in, model=label, source=src,
-            extra={"K": (2.0 * C.c + C.d + W.SQ2 * (C.e + C.f)) / 9.0, "G": C.g / 2.0},
-        )
-    return ElasticConstants(
-        E1=E_in, E2=E_in, E3=E_ax, G12=G_in, G13=G_out, G23=G_out, nu12=nu_in, nu13=nu_io,
-        nu23=nu_io, alpha1=a_in, alpha2=a_in, alpha3=a_ax, model=label, source=src,
-    )
+        a_avg = (x0 / W.SQ2, x1)  # in-plane, normal
+    return cm.normal_result(W.inv(C), orientation, model="mori_tanaka",
+                            source=SOURCE + RANDOM_SOURCE, alpha=a_avg)

@@ -31,11 +31,67 @@ from functools import lru_cache
 import numpy as np
 from numpy.typing import NDArray
 
+from micromech.errors import InputError
 from micromech.homogenize import walpole as W
 
-__all__ = ["average_3d", "average_planar", "basis_tensors", "project"]
+__all__ = ["ORIENTATIONS", "average", "average_3d", "average_planar", "basis_tensors",
+           "check_orientation_name", "project"]
 
 Array = NDArray[np.float64]
+
+#: Fibre orientations: along axis 1, uniformly random in the 1-2 plane, uniformly random in space.
+ORIENTATIONS: tuple[str, ...] = ("aligned", "random_in_plane", "random_3d")
+
+
+def check_orientation_name(orientation: str) -> str:
+    """Return ``orientation`` if it is one of :data:`ORIENTATIONS`.
+
+    Parameters
+    ----------
+    orientation : str
+        The name to check.
+
+    Returns
+    -------
+    str
+        The name.
+
+    Raises
+    ------
+    InputError
+        For any other name.
+    """
+    if orientation not in ORIENTATIONS:
+        raise InputError(
+            f"orientation = {orientation!r}: expected one of {', '.join(ORIENTATIONS)}"
+        )
+    return orientation
+
+
+def average(T: W.TI, orientation: str) -> W.TI:
+    """Average a tensor over the fibre directions of an orientation (``aligned``: T itself).
+
+    Parameters
+    ----------
+    T : walpole.TI
+        Tensor transversely isotropic about the fibre axis.
+    orientation : {"aligned", "random_in_plane", "random_3d"}
+        Fibre orientation (see :func:`average_planar` and :func:`average_3d` for the axes).
+
+    Returns
+    -------
+    walpole.TI
+        The averaged tensor.
+
+    References
+    ----------
+    Advani and Tucker (1987); Walpole (1981), Sec. 3 and 5.
+    """
+    if orientation == "random_3d":
+        return average_3d(T)
+    if orientation == "random_in_plane":
+        return average_planar(T)
+    return T
 
 
 def basis_tensors(n: Array) -> Array:

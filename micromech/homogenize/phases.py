@@ -26,6 +26,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InvalidMaterialError
+from micromech.tensors import at_index
 
 __all__ = ["FibrePhase", "MatrixPhase"]
 
@@ -34,13 +35,6 @@ Array = NDArray[np.float64]
 
 def _arr(x: ArrayLike | None) -> Array | None:
     return None if x is None else np.asarray(x, dtype=np.float64)
-
-
-def _where(mask: Array) -> str:
-    if mask.ndim == 0:
-        return ""
-    idx = tuple(int(i) for i in np.argwhere(mask)[0])
-    return f" at index {idx if len(idx) > 1 else idx[0]}"
 
 
 def _first_value(x: Array, mask: Array) -> float:
@@ -56,7 +50,7 @@ def _require(ok: Any, x: Array, who: str, field: str, rule: str) -> None:
     if np.any(bad):
         bad = np.broadcast_to(bad, np.broadcast_shapes(bad.shape, x.shape))
         raise InvalidMaterialError(
-            f"{who} {field} = {_first_value(x, bad):.6g}{_where(bad)}: {rule}"
+            f"{who} {field} = {_first_value(x, bad):.6g}{at_index(bad)}: {rule}"
         )
 
 
@@ -66,6 +60,16 @@ def _finite(x: Array, who: str, field: str) -> None:
 
 def _attr(m: Any, name: str) -> Any:
     return getattr(m, name, None)
+
+
+def _isotropic_constants(m: Any) -> tuple[Any, Any] | None:
+    """Return ``(E, nu)`` of an object with ``E`` and ``nu`` or ``G`` (nu = E / (2 G) - 1)."""
+    E, nu, G = _attr(m, "E"), _attr(m, "nu"), _attr(m, "G")
+    if E is None or (nu is None and G is None):
+        return None
+    if nu is None:
+        nu = np.asarray(E, dtype=float) / (2.0 * np.asarray(G, dtype=float)) - 1.0
+    return E, nu
 
 
 @dataclass(frozen=True, eq=False)
@@ -214,13 +218,9 @@ class FibrePhase:
         """
         if isinstance(m, FibrePhase):
             return m
-        if isinstance(m, MatrixPhase):
-            return cls.isotropic(m.E, m.nu, m.alpha)
-        E, nu, G = _attr(m, "E"), _attr(m, "nu"), _attr(m, "G")
-        if E is not None and (nu is not None or G is not None):
-            if nu is None:
-                nu = np.asarray(E, dtype=float) / (2.0 * np.asarray(G, dtype=float)) - 1.0
-            return cls.isotropic(E, nu, _attr(m, "alpha"))
+        iso = _isotropic_constants(m)  # also a MatrixPhase
+        if iso is not None:
+            return cls.isotropic(*iso, _attr(m, "alpha"))
         if callable(_attr(m, "ti")):
             try:
                 m = m.ti()
@@ -327,11 +327,9 @@ class MatrixPhase:
         """
         if isinstance(m, MatrixPhase):
             return m
-        E, nu, G = _attr(m, "E"), _attr(m, "nu"), _attr(m, "G")
-        if E is not None and (nu is not None or G is not None):
-            if nu is None:
-                nu = np.asarray(E, dtype=float) / (2.0 * np.asarray(G, dtype=float)) - 1.0
-            return cls(E, nu, _attr(m, "alpha"))
+        iso = _isotropic_constants(m)
+        if iso is not None:
+            return cls(*iso, _attr(m, "alpha"))
         f = m if isinstance(m, FibrePhase) else None
         if f is None and _attr(m, "E1") is not None:
             try:

@@ -57,8 +57,7 @@ def mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
     >>> float(mix(0.25, 8.0, 4.0))
     5.0
     """
-    c = cm.fraction(vf)
-    return np.asarray(c * np.asarray(value_f, float) + (1.0 - c) * np.asarray(value_m, float))
+    return np.asarray(_mix(cm.fraction(vf), np.asarray(value_f, float), np.asarray(value_m, float)))
 
 
 def inverse_mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
@@ -85,10 +84,16 @@ def inverse_mix(vf: ArrayLike, value_f: ArrayLike, value_m: ArrayLike) -> Array:
     >>> float(inverse_mix(0.5, 2.0, 6.0))
     3.0
     """
-    c = cm.fraction(vf)
-    xf = np.asarray(value_f, dtype=np.float64)
-    xm = np.asarray(value_m, dtype=np.float64)
-    return np.asarray(1.0 / (c / xf + (1.0 - c) / xm))
+    return np.asarray(
+        _inverse_mix(cm.fraction(vf), np.asarray(value_f, float), np.asarray(value_m, float)))
+
+
+def _mix(c: Array, xf: Array, xm: Array) -> Array:
+    return c * xf + (1.0 - c) * xm
+
+
+def _inverse_mix(c: Array, xf: Array, xm: Array) -> Array:
+    return 1.0 / (c / xf + (1.0 - c) / xm)
 
 
 def rule_of_mixtures(fibre: Any, matrix: Any, vf: ArrayLike) -> ElasticConstants:
@@ -127,12 +132,10 @@ def rule_of_mixtures(fibre: Any, matrix: Any, vf: ArrayLike) -> ElasticConstants
     """
     f, m = cm.phases(fibre, matrix)
     c = cm.fraction(vf)
-    d = 1.0 - c
-    E2 = 1.0 / (c / f.E2 + d / m.E)
     Gm = m.G
-    G23 = 1.0 / (c / f.G23 + d / Gm)
     alpha = schapery(f, m, c) if cm.has_cte(f, m) else (None, None)
     return ElasticConstants.transversely_isotropic(
-        c * f.E1 + d * m.E, E2, c * f.nu12 + d * m.nu, 1.0 / (c / f.G12 + d / Gm), G23,
+        _mix(c, f.E1, m.E), _inverse_mix(c, f.E2, m.E), _mix(c, f.nu12, m.nu),
+        _inverse_mix(c, f.G12, Gm), _inverse_mix(c, f.G23, Gm),
         alpha1=alpha[0], alpha2=alpha[1], model="rule_of_mixtures", source=SOURCE,
     )

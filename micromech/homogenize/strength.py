@@ -54,6 +54,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
 from micromech.homogenize import _common as cm
+from micromech.homogenize.mori_tanaka import mori_tanaka
+from micromech.results import json_value
 from micromech.safety import CAUTION
 
 __all__ = [
@@ -70,7 +72,6 @@ __all__ = [
 ]
 
 Array = NDArray[np.float64]
-
 
 
 @dataclass(frozen=True, eq=False)
@@ -105,9 +106,8 @@ class StrengthEstimate:
         dict
             ``value``, ``kind``, ``source``, ``note``.
         """
-        v = np.asarray(self.value, dtype=np.float64)
-        val: Any = np.where(np.isfinite(v), v.astype(object), np.array(None)).tolist()
-        return {"value": val, "kind": self.kind, "source": self.source, "note": self.note}
+        return {"value": json_value(self.value), "kind": self.kind, "source": self.source,
+                "note": self.note}
 
 
 def _pos(x: ArrayLike, name: str) -> Array:
@@ -313,10 +313,8 @@ def transverse_strength(
     >>> round(float(transverse_strength(10.37e9, 3.4e9, 85e9, 72e6, 0.7)) / 1e6, 2)
     20.57
     """
-    ds = fibre_spacing_ratio(vf, arrangement)
-    Em_ = _pos(Em, "matrix E")
-    eps = _pos(matrix_strength, "matrix strength") / Em_
-    return np.asarray(_pos(E2, "E2") * eps * (ds * Em_ / _pos(E2f, "fibre E2") + 1.0 - ds))
+    return _magnified(E2, Em, E2f, matrix_strength, vf, arrangement,
+                      ("E2", "matrix E", "fibre E2", "matrix strength"))
 
 
 def in_plane_shear_strength(
@@ -352,10 +350,23 @@ def in_plane_shear_strength(
     >>> round(float(in_plane_shear_strength(4.0137e9, 3.4e9 / 2.6, 85e9 / 2.4, 34e6, 0.7)) / 1e6, 2)
     9.47
     """
+    return _magnified(G12, Gm, G12f, matrix_shear_strength, vf, arrangement,
+                      ("G12", "matrix G", "fibre G12", "matrix shear strength"))
+
+
+def _magnified(
+    M: ArrayLike, M_m: ArrayLike, M_f: ArrayLike, matrix_strength: ArrayLike, vf: ArrayLike,
+    arrangement: str, names: tuple[str, str, str, str],
+) -> Array:
+    """Return ``M (s_m / M_m) [(d/s)(M_m / M_f) + 1 - d/s]`` (strain magnification, Kies 1962).
+
+    The composite modulus times the magnified matrix failure strain: E2 for the transverse
+    strengths, G12 for the in-plane shear strength; ``names`` label M, M_m, M_f and s_m.
+    """
     ds = fibre_spacing_ratio(vf, arrangement)
-    Gm_ = _pos(Gm, "matrix G")
-    gam = _pos(matrix_shear_strength, "matrix shear strength") / Gm_
-    return np.asarray(_pos(G12, "G12") * gam * (ds * Gm_ / _pos(G12f, "fibre G12") + 1.0 - ds))
+    Mm = _pos(M_m, names[1])
+    strain = _pos(matrix_strength, names[3]) / Mm
+    return np.asarray(_pos(M, names[0]) * strain * (ds * Mm / _pos(M_f, names[2]) + 1.0 - ds))
 
 
 def yield_bounds(yield_strengths: ArrayLike, fractions: ArrayLike) -> tuple[Array, Array]:
@@ -455,8 +466,6 @@ def strength_estimates(
     Each value carries its own source (see the module references): Kelly and Tyson (1965),
     Rosen (1965), Argon (1972), Budiansky (1983), Kies (1962), Kaw (2006), Drucker (1966).
     """
-    from micromech.homogenize.mori_tanaka import mori_tanaka
-
     if not misalignment_deg > 0.0:
         raise InputError(f"misalignment_deg = {misalignment_deg!r}: must be positive")
     out: dict[str, StrengthEstimate] = {}

@@ -39,6 +39,7 @@ __all__ = [
     "from_engineering",
     "from_hill",
     "to_engineering",
+    "engineering_from_compliance",
     "hill_moduli",
     "add",
     "sub",
@@ -198,17 +199,32 @@ def to_engineering(C: TI) -> dict[str, Array]:
         ``E1, E2, G12, G23`` (Pa), ``nu12, nu23`` and ``k23`` (plane-strain bulk modulus, Pa).
         For a non-symmetric C, nu12 is -eps22/eps11 under axial stress.
     """
-    S = inv(C)
+    return {**engineering_from_compliance(inv(C)), "k23": C.c / 2.0}
+
+
+def engineering_from_compliance(S: TI) -> dict[str, Array]:
+    """Engineering constants of a compliance transversely isotropic about axis 1.
+
+    Parameters
+    ----------
+    S : TI
+        Compliance, 1/Pa.
+
+    Returns
+    -------
+    dict of str to ndarray
+        ``E1, E2, G12, G23`` (Pa), ``nu12, nu23``: ``E1 = 1/d``, ``E2 = 2/(c + g)``,
+        ``nu12 = -e E1 / sqrt2``, ``G12 = 1/(2h)``, ``G23 = 1/(2g)``, ``nu23 = (g - c)/(g + c)``.
+    """
+    tr = S.c + S.g
     E1 = 1.0 / S.d
-    E2 = 2.0 / (S.c + S.g)
     return {
         "E1": E1,
-        "E2": E2,
+        "E2": 2.0 / tr,
         "nu12": -S.e / SQ2 * E1,
         "G12": 0.5 / S.h,
         "G23": 0.5 / S.g,
-        "nu23": (S.g - S.c) / (S.c + S.g),
-        "k23": C.c / 2.0,
+        "nu23": (S.g - S.c) / tr,
     }
 
 

@@ -18,13 +18,14 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import CaseFileError, InputError
 from micromech.laminate.clt import Laminate, LaminateConstants, LaminateResponse, load_vector
-from micromech.laminate.failure import CRITERIA, CriterionResult
+from micromech.laminate.failure import CRITERIA, REQUIRED_STRENGTHS, CriterionResult
 from micromech.laminate.ply import Ply, PlyMaterial
 from micromech.laminate.progressive import (
     FailureEvent,
     FailureSequence,
     first_ply_failure,
     last_ply_failure,
+    ply_minimum,
     ply_strength_ratios,
 )
 from micromech.laminate.stack import StackResult
@@ -116,9 +117,8 @@ class LaminateAnalysis:
             raise InputError(
                 f"criterion {key!r} was not evaluated (it needs loads and ply strengths)"
             )
-        R = self.criteria[key].strength_ratio
-        k = np.argmin(R, -1)
-        return np.take_along_axis(R, k[:, None], -1)[:, 0], k
+        ratio, point, _ = ply_minimum(self.criteria[key])
+        return ratio, point
 
 
 def analyse_laminate(
@@ -157,11 +157,9 @@ def analyse_laminate(
     """
     if criterion not in CRITERIA:
         raise InputError(f"criterion: unknown {criterion!r}; choose one of {', '.join(CRITERIA)}")
-    vec, dT = load_vector(loads)
+    vec, dT = load_vector(loads, delta_T)
     if vec.shape != (6,):
         raise InputError(f"loads: one load case (shape (6,)) expected, got {vec.shape}")
-    if delta_T is not None:
-        dT = float(delta_T)
     notes: list[str] = []
     stack = None
     if all(p.material.has_3d for p in laminate.plies):
@@ -177,8 +175,8 @@ def analyse_laminate(
         response = laminate.response(vec, dT)
         missing = sorted({
             name for p in laminate.plies
-            for name in (("Xt", "Xc", "Yt", "Yc", "S12") if p.material.strengths is None
-                         else p.material.strengths.missing(("Xt", "Xc", "Yt", "Yc", "S12")))
+            for name in (REQUIRED_STRENGTHS if p.material.strengths is None
+                         else p.material.strengths.missing(REQUIRED_STRENGTHS))
         })
         if missing:
             notes.append(f"failure analysis needs ply strengths {', '.join(missing)}")
@@ -227,30 +225,23 @@ def ply_material_from_case(case: Any) -> PlyMaterial:
         If the case has neither ``[ply]`` constants nor a composite to estimate them from, or
         the chosen estimate does not apply to the composite.
     """
-    label = str(getattr(case, "path", None) or getattr(case, "name", "case"))
     if getattr(case, "ply", None) is not None:
         return PlyMaterial.from_material(case.ply)
     composite = getattr(case, "composite", None)
     if composite is None:
         raise CaseFileError(
-            f"{label}: [laminate] needs ply constants: give a [ply] table, or [fibre], "
+            f"{_label(case)}: [laminate] needs ply constants: give a [ply] table, or [fibre], "
             "[matrix] and [composite] to estimate them"
         )
     model = getattr(case, "ply_model", "mori_tanaka") or "mori_tanaka"
-    from micromech.homogenize import estimate
+    try:
+        return PlyMaterial.from_composite(composite, model, getattr(case, "ply_strengths", None))
+    except InputError as exc:
+        raise CaseFileError(f"{_label(case)}: {exc}") from None
 
-    result = estimate(composite)
-    models = getattr(result, "models", result)
-    if model not in models:
-        why = getattr(result, "notes", {}).get(model, "")
-        raise CaseFileError(
-            f"{label}: [ply] model = {model!r} does not apply to this composite"
-            f"{' (' + why + ')' if why else ''}; available: {', '.join(sorted(models))}"
-        )
-    return PlyMaterial.from_constants(
-        models[model], strengths=getattr(case, "ply_strengths", None),
-        name=f"{model} estimate",
-    )
+
+def _label(case: Any) -> str:
+    return str(getattr(case, "path", None) or getattr(case, "name", "case"))
 
 
 def plies_from_case(case: Any) -> tuple[Ply, ...]:
@@ -294,9 +285,8 @@ def laminate_from_case(case: Any) -> Laminate:
     """
     spec = getattr(case, "laminate", None)
     if spec is None:
-        label = str(getattr(case, "path", None) or getattr(case, "name", "case"))
         raise CaseFileError(
-            f"{label}: no [laminate] table (needs layup = \"[0/90]s\" and ply_thickness)"
+            f"{_label(case)}: no [laminate] table (needs layup = \"[0/90]s\" and ply_thickness)"
         )
     material = ply_material_from_case(case)
     return Laminate.from_code(spec.layup, material, spec.ply_thickness)

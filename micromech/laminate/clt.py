@@ -116,7 +116,9 @@ def abd_matrices(Qbar: ArrayLike, z: ArrayLike) -> tuple[Array, Array, Array]:
     return (Qbar * w1).sum(-3), (Qbar * w2).sum(-3), (Qbar * w3).sum(-3)
 
 
-def load_vector(loads: Mapping[str, Any] | ArrayLike | None) -> tuple[Array, float]:
+def load_vector(
+    loads: Mapping[str, Any] | ArrayLike | None, delta_T: float | None = None
+) -> tuple[Array, float]:
     """Read force and moment resultants and a temperature change.
 
     Parameters
@@ -125,19 +127,26 @@ def load_vector(loads: Mapping[str, Any] | ArrayLike | None) -> tuple[Array, flo
         A mapping with any of ``Nx, Ny, Nxy`` (N/m or strings such as ``"100 N/mm"``),
         ``Mx, My, Mxy`` (N*m/m = N, or strings) and ``delta_T`` (K); or an array of shape
         (..., 6) in the order Nx, Ny, Nxy, Mx, My, Mxy (SI); or None (no load).
+    delta_T : float, optional
+        Temperature change, K; overrides a ``delta_T`` in ``loads``.
 
     Returns
     -------
     resultants : ndarray, shape (..., 6)
         Nx, Ny, Nxy (N/m), Mx, My, Mxy (N).
     delta_T : float
-        Temperature change, K (0 for arrays and None).
+        Temperature change, K (the override; else the mapping's; else 0).
 
     Raises
     ------
     InputError
         For an unknown key or an array whose last axis is not 6.
     """
+    vec, dT = _read_loads(loads)
+    return vec, dT if delta_T is None else float(delta_T)
+
+
+def _read_loads(loads: Mapping[str, Any] | ArrayLike | None) -> tuple[Array, float]:
     if loads is None:
         return np.zeros(6), 0.0
     if isinstance(loads, Mapping):
@@ -559,13 +568,7 @@ class Laminate:
         ----------
         Kaw (2006), Eqs. (4.35)-(4.38) (from memory); Daniel and Ishai (2006), Sec. 8.3.
         """
-        a = self._block_inverse("A", bending)
-        h = self.thickness
-        return LaminateConstants(
-            Ex=float(1.0 / (h * a[0, 0])), Ey=float(1.0 / (h * a[1, 1])),
-            Gxy=float(1.0 / (h * a[2, 2])), nuxy=float(-a[0, 1] / a[0, 0]),
-            nuyx=float(-a[0, 1] / a[1, 1]), kind="in_plane", bending=bending,
-        )
+        return self._constants("in_plane", bending, 1.0, self.thickness)
 
     def flexural_constants(self, bending: str = "free") -> LaminateConstants:
         """Flexural engineering constants of the laminate.
@@ -585,21 +588,26 @@ class Laminate:
         ----------
         Kaw (2006), Eqs. (4.39)-(4.42) (from memory).
         """
-        d = self._block_inverse("D", bending)
-        h3 = self.thickness**3
-        return LaminateConstants(
-            Ex=float(12.0 / (h3 * d[0, 0])), Ey=float(12.0 / (h3 * d[1, 1])),
-            Gxy=float(12.0 / (h3 * d[2, 2])), nuxy=float(-d[0, 1] / d[0, 0]),
-            nuyx=float(-d[0, 1] / d[1, 1]), kind="flexural", bending=bending,
-        )
+        return self._constants("flexural", bending, 12.0, self.thickness**3)
 
-    def _block_inverse(self, block: str, bending: str) -> Array:
+    def _constants(self, kind: str, bending: str, num: float, den: float) -> LaminateConstants:
+        """Moduli num / (den c_ii) and Poisson ratios -c12 / c_ii of a block c of compliance.
+
+        The block is that of ABD^-1 ("free") or the inverse of A or D ("restrained").
+        """
         if bending == "free":
             inv = self.abd_inverse
-            return inv[:3, :3] if block == "A" else inv[3:, 3:]
-        if bending == "restrained":
-            return np.asarray(np.linalg.inv(self.A if block == "A" else self.D), dtype=np.float64)
-        raise InputError(f"bending: expected 'free' or 'restrained', got {bending!r}")
+            c = inv[:3, :3] if kind == "in_plane" else inv[3:, 3:]
+        elif bending == "restrained":
+            c = np.asarray(np.linalg.inv(self.A if kind == "in_plane" else self.D),
+                           dtype=np.float64)
+        else:
+            raise InputError(f"bending: expected 'free' or 'restrained', got {bending!r}")
+        return LaminateConstants(
+            Ex=float(num / (den * c[0, 0])), Ey=float(num / (den * c[1, 1])),
+            Gxy=float(num / (den * c[2, 2])), nuxy=float(-c[0, 1] / c[0, 0]),
+            nuyx=float(-c[0, 1] / c[1, 1]), kind=kind, bending=bending,
+        )
 
     def thermal_resultants(self, delta_T: float) -> Array:
         """Thermal force and moment resultants (N_T, M_T) for a temperature change.
@@ -687,9 +695,7 @@ class Laminate:
         ----------
         Kaw (2006), Eqs. (4.16), (4.31) and Sec. 4.6; Jones (1999), Sec. 4.2.
         """
-        vec, dT = load_vector(loads)
-        if delta_T is not None:
-            dT = float(delta_T)
+        vec, dT = load_vector(loads, delta_T)
         thermal_rhs = self.thermal_resultants(dT)
         mech = self._fields(vec, 0.0)
         therm = self._fields(np.broadcast_to(thermal_rhs, (6,)), dT)

@@ -29,8 +29,8 @@ from micromech.laminate.failure import MODES
 from micromech.laminate.progressive import ply_strength_ratios
 from micromech.safety import CAUTION
 
-__all__ = ["ENVELOPE_AXES", "Envelope", "check_image_path", "failure_envelope",
-           "plot_envelopes"]
+__all__ = ["DISPLAY_UNITS", "ENVELOPE_AXES", "Envelope", "check_image_path",
+           "failure_envelope", "plot_envelopes"]
 
 Array = NDArray[np.float64]
 
@@ -42,11 +42,10 @@ ENVELOPE_AXES: dict[str, str] = {
 
 _STRESS_AXES = {"sx": 0, "sy": 1, "sxy": 2}
 
-#: How each axis is shown in plots: (label, factor from SI, unit shown).
-_PLOT_UNITS: dict[str, tuple[float, str]] = {
+#: How an axis of each SI unit is shown in plots and tables: (factor from SI, unit shown).
+DISPLAY_UNITS: dict[str, tuple[float, str]] = {
     "N/m": (1e-3, "N/mm"), "N": (1.0, "N*m/m"), "Pa": (1e-6, "MPa"),
 }
-
 
 
 @dataclass(frozen=True, eq=False)
@@ -113,9 +112,10 @@ class Envelope:
         }
 
 
-def _unit_loads(laminate: Laminate, axes: tuple[str, str], phi: Array) -> Array:
-    loads = np.zeros(phi.shape + (6,))
-    for axis, comp in zip(axes, (np.cos(phi), np.sin(phi)), strict=True):
+def _unit_loads(laminate: Laminate, axes: tuple[str, str], a: Array, b: Array) -> Array:
+    """Resultants of shape (m, 6) with components a along the first axis and b the second."""
+    loads = np.zeros(a.shape + (6,))
+    for axis, comp in zip(axes, (a, b), strict=True):
         if axis in _STRESS_AXES:
             loads[..., _STRESS_AXES[axis]] += comp * laminate.thickness
         else:
@@ -180,8 +180,9 @@ def failure_envelope(
     m = int(n_points)
     phi = np.linspace(0.0, 2.0 * np.pi, m)
     # the rays, then the four half axes (exact unit loads: no round-off in cos and sin)
-    loads = np.concatenate([_unit_loads(laminate, (ax[0], ax[1]), phi),
-                            _axis_loads(laminate, (ax[0], ax[1]))])
+    loads = _unit_loads(laminate, (ax[0], ax[1]),
+                        np.concatenate([np.cos(phi), [1.0, -1.0, 0.0, 0.0]]),
+                        np.concatenate([np.sin(phi), [0.0, 0.0, 1.0, -1.0]]))
     res = ply_strength_ratios(laminate, loads, delta_T, criterion, f12_star=f12_star)
     R = res.strength_ratio.reshape((m + 4, -1))
     codes = res.mode_code.reshape((m + 4, -1))
@@ -199,18 +200,6 @@ def failure_envelope(
                                                             strict=True)}
     return Envelope((ax[0], ax[1]), criterion, phi, x, y, ratio, mode, ply, float(delta_T),
                     intercepts)
-
-
-def _axis_loads(laminate: Laminate, axes: tuple[str, str]) -> Array:
-    """Return the unit loads along +A, -A, +B, -B, shape (4, 6)."""
-    out = np.zeros((4, 6))
-    for row, (axis, sign) in enumerate(((axes[0], 1.0), (axes[0], -1.0), (axes[1], 1.0),
-                                        (axes[1], -1.0))):
-        if axis in _STRESS_AXES:
-            out[row, _STRESS_AXES[axis]] = sign * laminate.thickness
-        else:
-            out[row, LOAD_NAMES.index(axis)] = sign
-    return out
 
 
 def plot_envelopes(
@@ -248,7 +237,7 @@ def plot_envelopes(
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.figure import Figure
 
-    (fx, ux), (fy, uy) = (_PLOT_UNITS[u] for u in envelopes[0].units)
+    (fx, ux), (fy, uy) = (DISPLAY_UNITS[u] for u in envelopes[0].units)
     fig = Figure(figsize=(6.4, 6.0))
     FigureCanvasAgg(fig)
     ax = fig.add_subplot()

@@ -50,6 +50,7 @@ from micromech.errors import InputError
 __all__ = [
     "CRITERIA",
     "MODES",
+    "REQUIRED_STRENGTHS",
     "CriterionResult",
     "max_stress",
     "max_strain",
@@ -63,6 +64,9 @@ Array = NDArray[np.float64]
 
 #: Criterion keys accepted by :func:`evaluate_criterion`.
 CRITERIA: tuple[str, ...] = ("max_stress", "max_strain", "tsai_hill", "tsai_wu", "hashin")
+
+#: Strengths every criterion needs (Hashin also reads S23 when given).
+REQUIRED_STRENGTHS: tuple[str, ...] = ("Xt", "Xc", "Yt", "Yc", "S12")
 
 #: Failure modes; ``CriterionResult.mode_code`` indexes this tuple.
 MODES: tuple[str, ...] = (
@@ -104,7 +108,9 @@ class CriterionResult:
 # --- helpers ----------------------------------------------------------------------------------
 
 
-def _need(strengths: Any, names: tuple[str, ...], criterion: str) -> list[Array]:
+def _need(strengths: Any, criterion: str) -> list[Array]:
+    """Xt, Xc, Yt, Yc, S12 as arrays, or an error naming the criterion and what is missing."""
+    names = REQUIRED_STRENGTHS
     if strengths is None:
         raise InputError(f"{criterion}: ply strengths are needed ({', '.join(names)})")
     missing = [n for n in names if getattr(strengths, n, None) is None]
@@ -192,6 +198,25 @@ def _first_reach(a: Array, b: Array, c: Array, lo: Array, hi: Array) -> Array:
     return np.where(empty | (lam > hi), np.inf, lam)
 
 
+def _first_component(
+    vT: Array, vM: Array, upper: tuple[Array, ...], lower: tuple[Array, ...]
+) -> tuple[Array, Array]:
+    """Ratio and mode of the first of three components (1, 2, 12) to leave its allowable range.
+
+    ``vT + lambda vM`` (stresses or strains) is compared with ``[-lower, upper]`` component by
+    component; the mode is named by the component that reaches its limit first and its sign
+    there.
+    """
+    lams = np.stack([_linear_ratio(vT[..., i], vM[..., i], upper[i], lower[i])
+                     for i in range(3)], -1)
+    k = np.argmin(lams, -1)
+    R = np.min(lams, -1)
+    v = _failure_point(vT, vM, R)
+    mode = np.choose(k, [np.where(v[..., 0] >= 0, _FT, _FC), np.where(v[..., 1] >= 0, _MT, _MC),
+                         np.full(np.shape(k), _SH)])
+    return R, mode
+
+
 def _dominant_mode(s: Array, Xt: Array, Xc: Array, Yt: Array, Yc: Array, S: Array) -> Array:
     """Mode of the largest stress-to-strength ratio at stress state s (..., 3)."""
     r1 = np.where(s[..., 0] >= 0, s[..., 0] / Xt, -s[..., 0] / Xc)
@@ -239,18 +264,9 @@ def max_stress(
     ----------
     Jones (1999), Sec. 2.9.2; Kaw (2006), Sec. 2.9.1.
     """
-    Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "max_stress")
+    Xt, Xc, Yt, Yc, S = _need(strengths, "max_stress")
     sM, sT, scale = _stresses(stress, thermal)
-    lams = np.stack([
-        _linear_ratio(sT[..., 0], sM[..., 0], Xt, Xc),
-        _linear_ratio(sT[..., 1], sM[..., 1], Yt, Yc),
-        _linear_ratio(sT[..., 2], sM[..., 2], S, S),
-    ], -1)
-    k = np.argmin(lams, -1)
-    R = np.min(lams, -1)
-    s = _failure_point(sT, sM, R)
-    mode = np.choose(k, [np.where(s[..., 0] >= 0, _FT, _FC), np.where(s[..., 1] >= 0, _MT, _MC),
-                         np.full(np.shape(k), _SH)])
+    R, mode = _first_component(sT, sM, (Xt, Yt, S), (Xc, Yc, S))
     return _result("max_stress", R / scale, mode)
 
 
@@ -283,7 +299,7 @@ def max_strain(
     ----------
     Jones (1999), Sec. 2.9.3; Kaw (2006), Sec. 2.9.2.
     """
-    Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "max_strain")
+    Xt, Xc, Yt, Yc, S = _need(strengths, "max_strain")
     sM, sT, scale = _stresses(stress, thermal)
     Sm = np.asarray(compliance, dtype=np.float64)
     if Sm.shape[-2:] != (3, 3):
@@ -291,16 +307,8 @@ def max_strain(
     eM = np.einsum("...ij,...j->...i", Sm, sM)
     eT = np.einsum("...ij,...j->...i", Sm, sT)
     s11, s22, s66 = Sm[..., 0, 0], Sm[..., 1, 1], Sm[..., 2, 2]
-    lams = np.stack([
-        _linear_ratio(eT[..., 0], eM[..., 0], Xt * s11, Xc * s11),
-        _linear_ratio(eT[..., 1], eM[..., 1], Yt * s22, Yc * s22),
-        _linear_ratio(eT[..., 2], eM[..., 2], S * s66, S * s66),
-    ], -1)
-    k = np.argmin(lams, -1)
-    R = np.min(lams, -1)
-    e = _failure_point(eT, eM, R)
-    mode = np.choose(k, [np.where(e[..., 0] >= 0, _FT, _FC), np.where(e[..., 1] >= 0, _MT, _MC),
-                         np.full(np.shape(k), _SH)])
+    R, mode = _first_component(eT, eM, (Xt * s11, Yt * s22, S * s66),
+                               (Xc * s11, Yc * s22, S * s66))
     return _result("max_strain", R / scale, mode)
 
 
@@ -337,7 +345,7 @@ def tsai_hill(
     ----------
     Azzi and Tsai (1965); Jones (1999), Sec. 2.9; Kaw (2006), Sec. 2.9.3.
     """
-    Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "tsai_hill")
+    Xt, Xc, Yt, Yc, S = _need(strengths, "tsai_hill")
     sM, sT, scale = _stresses(stress, thermal)
     zero_f = np.zeros(3)
     R = np.full(sM.shape[:-1], np.inf)
@@ -395,7 +403,7 @@ def tsai_wu(
         raise InputError(
             f"f12_star = {f12_star}: must lie in (-1, 1) for a closed Tsai-Wu failure surface"
         )
-    Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "tsai_wu")
+    Xt, Xc, Yt, Yc, S = _need(strengths, "tsai_wu")
     sM, sT, scale = _stresses(stress, thermal)
     F11, F22, F66 = 1.0 / (Xt * Xc), 1.0 / (Yt * Yc), 1.0 / S**2
     H = _diag3(F11, F22, F66)
@@ -440,33 +448,29 @@ def hashin(
     ----------
     Hashin (1980), J. Appl. Mech. 47, 329-334, Eqs. (23)-(26) (from memory).
     """
-    Xt, Xc, Yt, Yc, S = _need(strengths, ("Xt", "Xc", "Yt", "Yc", "S12"), "hashin")
+    Xt, Xc, Yt, Yc, S = _need(strengths, "hashin")
     S23 = getattr(strengths, "S23", None)
     ST = Yc / 2.0 if S23 is None else np.asarray(S23, dtype=np.float64)
     sM, sT, scale = _stresses(stress, thermal)
     zero3 = np.zeros(3)
-    modes = []
-    # fibre tension / compression: region by the sign of s11
-    lo, hi = _sign_interval(sT[..., 0], sM[..., 0], True)
-    a, b, c = _ray(_diag3(1.0 / Xt**2, 0.0, 1.0 / S**2), zero3, sT, sM)
-    modes.append(_first_reach(a, b, c, lo, hi))
-    lo, hi = _sign_interval(sT[..., 0], sM[..., 0], False)
-    a, b, c = _ray(_diag3(1.0 / Xc**2, 0.0, 0.0), zero3, sT, sM)
-    modes.append(_first_reach(a, b, c, lo, hi))
-    # matrix tension / compression: region by the sign of s22
-    lo, hi = _sign_interval(sT[..., 1], sM[..., 1], True)
-    a, b, c = _ray(_diag3(0.0, 1.0 / Yt**2, 1.0 / S**2), zero3, sT, sM)
-    modes.append(_first_reach(a, b, c, lo, hi))
-    lo, hi = _sign_interval(sT[..., 1], sM[..., 1], False)
     lin = ((Yc / (2.0 * ST)) ** 2 - 1.0) / Yc
-    f = np.stack(np.broadcast_arrays(0.0 * lin, lin, 0.0 * lin), -1)
-    a, b, c = _ray(_diag3(0.0 * lin, 1.0 / (2.0 * ST) ** 2, 1.0 / S**2), f, sT, sM)
-    modes.append(_first_reach(a, b, c, lo, hi))
-    # matrix modes first: on a tie (e.g. pure shear, s11 = s22 = 0) the matrix mode is named
-    lams = np.stack(modes[2:] + modes[:2], -1)
+    f_mc = np.stack(np.broadcast_arrays(0.0 * lin, lin, 0.0 * lin), -1)
+    # mode, the component whose sign selects it (s22 or s11), that sign, H and f of
+    # F = s.H.s + f.s; matrix modes first: on a tie (e.g. pure shear, s11 = s22 = 0) the
+    # matrix mode is named
+    table = (
+        (_MT, 1, True, _diag3(0.0, 1.0 / Yt**2, 1.0 / S**2), zero3),
+        (_MC, 1, False, _diag3(0.0 * lin, 1.0 / (2.0 * ST) ** 2, 1.0 / S**2), f_mc),
+        (_FT, 0, True, _diag3(1.0 / Xt**2, 0.0, 1.0 / S**2), zero3),
+        (_FC, 0, False, _diag3(1.0 / Xc**2, 0.0, 0.0), zero3),
+    )
+    lams = np.stack([
+        _first_reach(*_ray(H, f, sT, sM), *_sign_interval(sT[..., i], sM[..., i], positive))
+        for _, i, positive, H, f in table
+    ], -1)
     k = np.argmin(lams, -1)
     R = np.min(lams, -1)
-    mode = np.asarray([_MT, _MC, _FT, _FC])[k]
+    mode = np.asarray([row[0] for row in table])[k]
     return _result("hashin", R / scale, mode)
 
 

@@ -47,8 +47,10 @@ MAX_PLIES = 10_000
 
 _OVERBARS = ("\u0305", "\u0304")  # combining overline, combining macron
 
-_PLUS_MINUS = ("+-", "±")
-_MINUS_PLUS = ("-+", "∓")
+# the tokens of a +-/-+ pair and the signs of its two plies
+_PAIRS: tuple[tuple[tuple[float, float], str], ...] = (
+    ((1.0, -1.0), "+-"), ((1.0, -1.0), "±"), ((-1.0, 1.0), "-+"), ((-1.0, 1.0), "∓"),
+)
 
 
 class _Parser:
@@ -61,13 +63,17 @@ class _Parser:
         self.bar_at: int | None = None  # position of an overbar on the angle just read
 
     # -- helpers ---------------------------------------------------------------------------
+    def _char(self) -> str:
+        """Return the character at the position, or "" at the end."""
+        return self.code[self.i] if self.i < len(self.code) else ""
+
     def _skip(self) -> None:
-        while self.i < len(self.code) and self.code[self.i].isspace():
+        while self._char().isspace():
             self.i += 1
 
     def _peek(self) -> str:
         self._skip()
-        return self.code[self.i] if self.i < len(self.code) else ""
+        return self._char()
 
     def _fail(self, rule: str, at: int | None = None) -> InputError:
         pos = self.i if at is None else at
@@ -79,7 +85,7 @@ class _Parser:
 
     def _digits(self) -> str:
         start = self.i
-        while self.i < len(self.code) and self.code[self.i].isdigit():
+        while self._char().isdigit():
             self.i += 1
         return self.code[start : self.i]
 
@@ -106,6 +112,13 @@ class _Parser:
                 f"{MAX_PLIES}", at=at,
             )
         return items * n
+
+    def _repeat_count(self, bare: bool) -> int:
+        """Read an optional repeat count ``_N`` (with ``bare`` also ``N``); 1 without one."""
+        if self._char() == "_":
+            self.i += 1
+            return self._count()
+        return self._count() if bare and self._char().isdigit() else 1
 
     def _count(self) -> int:
         start = self.i
@@ -151,23 +164,14 @@ class _Parser:
             if self._peek() != ")":
                 raise self._fail("expected '/' or ')'")
             self.i += 1
-            n = 1
             at = self.i
-            if self.i < len(self.code) and self.code[self.i] == "_":
-                self.i += 1
-                n = self._count()
-            elif self.i < len(self.code) and self.code[self.i].isdigit():
-                n = self._count()
-            return self._repeat(inner, n, at)
+            return self._repeat(inner, self._repeat_count(bare=True), at)
         self.bar_at = None
         plies = self._angle_or_pair()
-        n = 1
         at = self.i
-        if self.i < len(self.code) and self.code[self.i] == "_":
-            self.i += 1
-            n = self._count()
+        n = self._repeat_count(bare=False)
         barred = self.bar_at is not None
-        quoted = self.i < len(self.code) and self.code[self.i] == "'"
+        quoted = self._char() == "'"
         if barred or quoted:
             mark = self.i if quoted else self.bar_at
             if depth > 0:
@@ -187,30 +191,23 @@ class _Parser:
 
     def _angle_or_pair(self) -> list[float]:
         self._skip()
-        rest = self.code[self.i :]
-        sign_pair: tuple[float, float] | None = None
-        for tok in _PLUS_MINUS:
-            if rest.startswith(tok):
-                sign_pair = (1.0, -1.0)
+        signs: tuple[float, float] | None = None
+        for pair, tok in _PAIRS:
+            if self.code.startswith(tok, self.i):
+                signs = pair
                 self.i += len(tok)
                 break
-        else:
-            for tok in _MINUS_PLUS:
-                if rest.startswith(tok):
-                    sign_pair = (-1.0, 1.0)
-                    self.i += len(tok)
-                    break
         start = self.i
         sign = 1.0
-        if sign_pair is None and self.i < len(self.code) and self.code[self.i] in "+-":
+        if signs is None and self._char() in ("+", "-"):
             sign = -1.0 if self.code[self.i] == "-" else 1.0
             self.i += 1
         num_start = self.i
         whole = self._marked_digits()
         frac = ""
-        if self.i < len(self.code) and self.code[self.i] == ".":
+        if self._char() == ".":
             self.i += 1
-            while self.i < len(self.code) and self.code[self.i] in _OVERBARS:
+            while self._char() in _OVERBARS:
                 self.bar_at = self.i if self.bar_at is None else self.bar_at
                 self.i += 1
             frac = self._marked_digits()
@@ -230,21 +227,19 @@ class _Parser:
                 f"layup {self.code!r}: angle {value:g} at position {start + 1} is outside "
                 f"[-{MAX_ANGLE:g}, {MAX_ANGLE:g}] degrees"
             )
-        if sign_pair is not None:
-            return [sign_pair[0] * value, sign_pair[1] * value]
+        if signs is not None:
+            return [signs[0] * value, signs[1] * value]
         return [sign * value + 0.0]  # + 0.0 turns -0.0 into 0.0
 
     def _suffix(self, angles: list[float]) -> tuple[float, ...]:
         self._skip()
         start = self.i
-        n = 1
-        if self.i < len(self.code) and self.code[self.i].isdigit():
-            n = self._count()
+        n = self._count() if self._char().isdigit() else 1
         symmetric = False
-        if self.i < len(self.code) and self.code[self.i] in "sS":
+        if self._char() in ("s", "S"):
             symmetric = True
             self.i += 1
-        elif self.i < len(self.code) and self.code[self.i] == "T" and self.i == start:
+        elif self._char() == "T" and self.i == start:
             self.i += 1
         self._skip()
         if self.i != len(self.code):

@@ -79,6 +79,20 @@ def _cos_sin(angle: ArrayLike) -> tuple[Array, Array]:
     return np.where(np.abs(c) < 1e-15, 0.0, c), np.where(np.abs(s) < 1e-15, 0.0, s)
 
 
+def _rotation(angle: ArrayLike, k: float) -> Array:
+    """[[c^2, s^2, k cs], [s^2, c^2, -k cs], [-2cs/k, 2cs/k, c^2 - s^2]].
+
+    k = 2 for stresses (tensor shear), k = 1 for strains (engineering shear, gamma = 2 eps).
+    """
+    c, s = _cos_sin(angle)
+    cs = c * s
+    return np.stack([
+        np.stack([c * c, s * s, k * cs], -1),
+        np.stack([s * s, c * c, -k * cs], -1),
+        np.stack([-2.0 / k * cs, 2.0 / k * cs, c * c - s * s], -1),
+    ], -2)
+
+
 def stress_transformation(angle: ArrayLike) -> Array:
     """Matrix T that takes in-plane stresses from laminate to ply axes: sigma_12 = T sigma_xy.
 
@@ -96,12 +110,7 @@ def stress_transformation(angle: ArrayLike) -> Array:
     ----------
     Kaw (2006), Eq. (2.94).
     """
-    c, s = _cos_sin(angle)
-    return np.stack([
-        np.stack([c * c, s * s, 2 * c * s], -1),
-        np.stack([s * s, c * c, -2 * c * s], -1),
-        np.stack([-c * s, c * s, c * c - s * s], -1),
-    ], -2)
+    return _rotation(angle, 2.0)
 
 
 def strain_transformation(angle: ArrayLike) -> Array:
@@ -121,12 +130,7 @@ def strain_transformation(angle: ArrayLike) -> Array:
     ----------
     Kaw (2006), Eq. (2.98).
     """
-    c, s = _cos_sin(angle)
-    return np.stack([
-        np.stack([c * c, s * s, c * s], -1),
-        np.stack([s * s, c * c, -c * s], -1),
-        np.stack([-2 * c * s, 2 * c * s, c * c - s * s], -1),
-    ], -2)
+    return _rotation(angle, 1.0)
 
 
 def transformed_reduced_stiffness(Q: ArrayLike, angle: ArrayLike) -> Array:

@@ -29,6 +29,7 @@ from numpy.typing import NDArray
 
 from micromech import tensors
 from micromech.errors import InputError, InvalidMaterialError, MicromechError
+from micromech.laminate.failure import REQUIRED_STRENGTHS
 from micromech.units import parse_quantity
 
 __all__ = ["PlyStrengths", "PlyMaterial", "Ply", "STRENGTH_NAMES"]
@@ -134,7 +135,7 @@ class PlyStrengths:
     @property
     def complete(self) -> bool:
         """Whether Xt, Xc, Yt, Yc and S12 are all given (S23 is optional)."""
-        return not self.missing(STRENGTH_NAMES[:5])
+        return not self.missing(REQUIRED_STRENGTHS)
 
     def missing(self, names: tuple[str, ...] | list[str]) -> list[str]:
         """Names among ``names`` that are not given.
@@ -166,6 +167,12 @@ class PlyStrengths:
 _MODULI = ("E1", "E2", "E3", "G12", "G13", "G23")
 _RATIOS = ("nu12", "nu13", "nu23")
 _ALPHAS = ("alpha1", "alpha2", "alpha3")
+
+
+def _given_constants(source: Any) -> dict[str, Any]:
+    """Return the moduli, Poisson ratios and CTEs an object gives (attributes not None)."""
+    return {k: v for k in (*_MODULI, *_RATIOS, *_ALPHAS)
+            if (v := getattr(source, k, None)) is not None}
 
 
 @dataclass(frozen=True)
@@ -228,31 +235,20 @@ class PlyMaterial:
 
     def __post_init__(self) -> None:
         label = f"ply material {self.name!r}" if self.name else "ply material"
-        for k in _MODULI:
-            v = getattr(self, k)
-            if v is not None:
-                v = _scalar(v, "pressure", f"{label}: {k}")
-                if v <= 0.0:
+        for names, kind in ((_MODULI, "pressure"), (_RATIOS, "dimensionless"),
+                            (_ALPHAS, "expansion")):
+            for k in names:
+                if (v := getattr(self, k)) is None:
+                    continue
+                v = _scalar(v, kind, f"{label}: {k}")
+                if kind == "pressure" and v <= 0.0:
                     raise InvalidMaterialError(f"{label}: {k} = {v:g} Pa must be positive")
                 object.__setattr__(self, k, v)
-        for k in _RATIOS:
-            v = getattr(self, k)
-            if v is not None:
-                object.__setattr__(self, k, _scalar(v, "dimensionless", f"{label}: {k}"))
-        for k in _ALPHAS:
-            v = getattr(self, k)
-            if v is not None:
-                object.__setattr__(self, k, _scalar(v, "expansion", f"{label}: {k}"))
         object.__setattr__(self, "strengths", PlyStrengths.from_any(self.strengths))
-        # transversely isotropic defaults
-        if self.E3 is None:
-            object.__setattr__(self, "E3", self.E2)
-        if self.G13 is None:
-            object.__setattr__(self, "G13", self.G12)
-        if self.nu13 is None:
-            object.__setattr__(self, "nu13", self.nu12)
-        if self.alpha3 is None and self.alpha2 is not None:
-            object.__setattr__(self, "alpha3", self.alpha2)
+        # transversely isotropic defaults: direction 3 like direction 2
+        for k, like in (("E3", "E2"), ("G13", "G12"), ("nu13", "nu12"), ("alpha3", "alpha2")):
+            if getattr(self, k) is None:
+                object.__setattr__(self, k, getattr(self, like))
         if self.E3 == self.E2:
             if self.G23 is None and self.nu23 is not None:
                 object.__setattr__(self, "G23", self.E2 / (2.0 * (1.0 + self.nu23)))
@@ -307,13 +303,8 @@ class PlyMaterial:
                 f"ply from {getattr(constants, 'model', '') or 'constants'}: "
                 f"missing {', '.join(missing)} (a ply needs E1, E2, nu12, G12)"
             )
-        kw: dict[str, Any] = {}
-        for k in (*_MODULI, *_RATIOS, *_ALPHAS):
-            v = getattr(constants, k, None)
-            if v is not None:
-                kw[k] = _scalar(v, "dimensionless", k)
         return cls(
-            **kw,
+            **_given_constants(constants),
             strengths=strengths,
             name=name if name is not None else str(getattr(constants, "model", "") or ""),
             source=str(getattr(constants, "source", "") or ""),
@@ -461,12 +452,7 @@ class PlyMaterial:
             if callable(ti):
                 src = ti()
         if getattr(src, "E1", None) is not None:
-            kw: dict[str, Any] = {}
-            for k in (*_MODULI, *_RATIOS, *_ALPHAS):
-                v = getattr(src, k, None)
-                if v is not None:
-                    kw[k] = v
-            return cls(**kw, strengths=strengths, name=name, source=source)
+            return cls(**_given_constants(src), strengths=strengths, name=name, source=source)
         E, nu = getattr(src, "E", None), getattr(src, "nu", None)
         if E is None or nu is None:
             raise InputError(

@@ -227,13 +227,15 @@ class FailureSequence:
         }
 
 
-def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float, float]:
+def _direction(
+    loads: Mapping[str, Any] | ArrayLike, delta_T: float | None
+) -> tuple[Array, float, float]:
     """Return the load direction scaled to a largest resultant of 1 (SI), the scale and dT.
 
     Load factors are found for the scaled direction and divided by the scale, so that very
     large or very small resultants neither overflow nor underflow.
     """
-    vec, dT = load_vector(loads)
+    vec, dT = load_vector(loads, delta_T)
     if vec.shape != (6,):
         raise InputError(f"loads: one load direction (shape (6,)) expected, got {vec.shape}")
     if not np.any(vec != 0.0):
@@ -245,8 +247,23 @@ def _direction(loads: Mapping[str, Any] | ArrayLike) -> tuple[Array, float, floa
     return vec / scale, scale, dT
 
 
-def _ply_minimum(res: CriterionResult) -> tuple[Array, NDArray[np.intp], NDArray[np.int64]]:
-    """Per ply: smallest strength ratio over the three points, its point index and mode."""
+def ply_minimum(res: CriterionResult) -> tuple[Array, NDArray[np.intp], NDArray[np.int64]]:
+    """Per ply: the smallest strength ratio over its three points, that point and its mode.
+
+    Parameters
+    ----------
+    res : CriterionResult
+        Arrays of shape (..., n, 3) (ply, point), as :func:`ply_strength_ratios` returns.
+
+    Returns
+    -------
+    ratio : ndarray, shape (..., n)
+        Strength ratios.
+    point : ndarray of int, shape (..., n)
+        0 bottom, 1 middle, 2 top.
+    mode : ndarray of int, shape (..., n)
+        Mode codes (index into :data:`~micromech.laminate.failure.MODES`).
+    """
     R = res.strength_ratio
     k = np.argmin(R, -1)
     Rmin = np.take_along_axis(R, k[..., None], -1)[..., 0]
@@ -306,11 +323,9 @@ def first_ply_failure(
     ----------
     Kaw (2006), Sec. 5.3.
     """
-    vec, scale, dT = _direction(loads)
-    if delta_T is not None:
-        dT = float(delta_T)
+    vec, scale, dT = _direction(loads, delta_T)
     res = ply_strength_ratios(laminate, vec, dT, criterion, f12_star=f12_star)
-    R, point, mode = _ply_minimum(res)
+    R, point, mode = ply_minimum(res)
     lam = float(np.min(R))
     idx = np.flatnonzero(R <= lam * (1.0 + rtol)) if np.isfinite(lam) else np.array([], int)
     return _event(laminate, vec, lam, scale, idx, point, mode)
@@ -361,9 +376,7 @@ def last_ply_failure(
     """
     if not 0.0 < residual < 1.0:
         raise InputError(f"residual = {residual}: must lie in (0, 1)")
-    vec, scale, dT = _direction(loads)
-    if delta_T is not None:
-        dT = float(delta_T)
+    vec, scale, dT = _direction(loads, delta_T)
     n = laminate.n_plies
     state = np.zeros(n, dtype=int)  # 0 intact, 1 matrix failed, 2 fibre failed
     original = [p.material for p in laminate.plies]
@@ -376,7 +389,7 @@ def last_ply_failure(
         res = ply_strength_ratios(
             current, vec, dT, criterion, f12_star=f12_star, fibre_only=state == 1
         )
-        R, point, mode = _ply_minimum(res)
+        R, point, mode = ply_minimum(res)
         R = np.where(state == 2, np.inf, R)
         lam = float(np.min(R))
         if not np.isfinite(lam):

@@ -81,7 +81,9 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import FractionError, InputError, InvalidMaterialError
+from micromech.homogenize.mori_tanaka import INCLUSIONS, ORIENTATIONS
 from micromech.materials.models import Isotropic, Material, Orthotropic, TransverselyIsotropic
+from micromech.tensors import at_index
 from micromech.units import parse_quantity
 
 __all__ = [
@@ -91,6 +93,7 @@ __all__ = [
     "ARRANGEMENTS",
     "ORIENTATIONS",
     "ORIENTATION_INCLUSIONS",
+    "check_fraction",
     "check_orientation",
     "packing_limit",
     "volume_fraction_from_weight",
@@ -102,9 +105,8 @@ Inclusion = Literal["continuous", "spheroid", "sphere"]
 Arrangement = Literal["random", "square", "hexagonal"]
 Orientation = Literal["aligned", "random_in_plane", "random_3d"]
 
-INCLUSIONS: tuple[str, ...] = ("continuous", "spheroid", "sphere")
+# INCLUSIONS and ORIENTATIONS (imported above) are those the Mori-Tanaka estimate implements.
 ARRANGEMENTS: tuple[str, ...] = ("random", "square", "hexagonal")
-ORIENTATIONS: tuple[str, ...] = ("aligned", "random_in_plane", "random_3d")
 #: orientation -> inclusions it is allowed with (see the module table).
 ORIENTATION_INCLUSIONS: dict[str, tuple[str, ...]] = {
     "aligned": INCLUSIONS,
@@ -241,21 +243,29 @@ def _fraction(value: Any, field: str) -> float | Array:
     return a
 
 
-def _first_bad(mask: Any) -> str:
-    m = np.asarray(mask)
-    if m.ndim == 0:
-        return ""
-    idx = tuple(int(i) for i in np.argwhere(m)[0])
-    return f" at index {idx[0] if len(idx) == 1 else idx}"
+def check_fraction(x: ArrayLike, field: str, *, open_upper: bool = False) -> None:
+    """Raise FractionError unless every value is a finite fraction in [0, 1] (or [0, 1)).
 
+    Parameters
+    ----------
+    x : array_like, shape (...)
+        The fraction(s).
+    field : str
+        Name for the message.
+    open_upper : bool
+        Whether 1 is excluded (a void fraction).
 
-def _check_unit_interval(x: float | Array, field: str, *, open_upper: bool = False) -> None:
+    Raises
+    ------
+    FractionError
+        Naming the field, the first bad value, its index and the rule.
+    """
     a = np.asarray(x)
     bad = ~np.isfinite(a) | (a < 0.0) | ((a >= 1.0) if open_upper else (a > 1.0))
     if np.any(bad):
         val = a[np.nonzero(bad)][0] if a.ndim else a
         rule = "0 <= value < 1" if open_upper else "0 <= value <= 1"
-        raise FractionError(f"{field} = {float(val)!r}{_first_bad(bad)} is outside [0, 1] "
+        raise FractionError(f"{field} = {float(val)!r}{at_index(bad)} is outside [0, 1] "
                             f"(rule: {rule})")
 
 
@@ -420,20 +430,20 @@ class Composite:
         vv = _fraction(self.void_fraction, "void_fraction")
         object.__setattr__(self, "volume_fraction", vf)
         object.__setattr__(self, "void_fraction", vv)
-        _check_unit_interval(vf, "volume_fraction")
-        _check_unit_interval(vv, "void_fraction", open_upper=True)
+        check_fraction(vf, "volume_fraction")
+        check_fraction(vv, "void_fraction", open_upper=True)
         total = np.asarray(vf) + np.asarray(vv)
         if np.any(total > 1.0 + 1e-12):
             raise FractionError(
                 f"volume_fraction + void_fraction = {float(np.max(total))!r} exceeds 1"
-                f"{_first_bad(total > 1.0 + 1e-12)}"
+                f"{at_index(total > 1.0 + 1e-12)}"
             )
         limit, how = PACKING_LIMITS[(self.inclusion, self.arrangement)]
         over = np.asarray(vf) > limit
         if np.any(over):
             val = float(np.max(np.asarray(vf)))
             raise FractionError(
-                f"volume_fraction = {val!r}{_first_bad(over)} exceeds the packing limit "
+                f"volume_fraction = {val!r}{at_index(over)} exceeds the packing limit "
                 f"{limit:.4f} of {self.arrangement} {self.inclusion} inclusions ({how})"
             )
 
@@ -519,8 +529,8 @@ class Composite:
         """
         wf = _fraction(weight_fraction, "weight_fraction")
         vv = _fraction(void_fraction, "void_fraction")
-        _check_unit_interval(wf, "weight_fraction")
-        _check_unit_interval(vv, "void_fraction", open_upper=True)
+        check_fraction(wf, "weight_fraction")
+        check_fraction(vv, "void_fraction", open_upper=True)
         vf = volume_fraction_from_weight(
             wf, _density(fibre, "fibre"), _density(matrix, "matrix"), vv
         )

@@ -29,7 +29,7 @@ from pydantic import BaseModel, ConfigDict, Field, ValidationError, model_valida
 
 from micromech import tensors
 from micromech.errors import InvalidMaterialError, MicromechError
-from micromech.results import ElasticConstants
+from micromech.results import CONSTANT_NAMES, ElasticConstants
 from micromech.units import parse_quantity
 
 __all__ = [
@@ -93,8 +93,10 @@ class _Frozen(BaseModel):
 
     model_config = ConfigDict(frozen=True, extra="forbid", validate_default=False)
 
-    #: Field name -> quantity kind (see :data:`micromech.units.DIMENSIONS`).
+    #: Field name -> quantity kind (see :data:`micromech.units.DIMENSIONS`); the fields every
+    #: subclass shares are in ``_COMMON_KINDS``.
     _KINDS: ClassVar[dict[str, str]] = {}
+    _COMMON_KINDS: ClassVar[dict[str, str]] = {}
     _LABEL: ClassVar[str] = "material"
 
     def __init__(self, **data: Any) -> None:
@@ -109,7 +111,7 @@ class _Frozen(BaseModel):
         if not isinstance(data, dict):
             return data
         out = dict(data)
-        for key, kind in cls._KINDS.items():
+        for key, kind in {**cls._COMMON_KINDS, **cls._KINDS}.items():
             value = out.get(key)
             if value is None:
                 continue
@@ -120,11 +122,11 @@ class _Frozen(BaseModel):
         return out
 
 
-def _positive(obj: BaseModel, names: tuple[str, ...], what: str) -> None:
+def _positive(obj: BaseModel, names: tuple[str, ...], why: str = "") -> None:
     for n in names:
         v = getattr(obj, n)
         if v is not None and not v > 0.0:
-            raise InvalidMaterialError(f"{n} = {v!r} must be positive ({what})")
+            raise InvalidMaterialError(f"{n} = {v!r} must be positive{why}")
 
 
 # --- strengths --------------------------------------------------------------------------------
@@ -163,17 +165,8 @@ class Strengths(_Frozen):
 
     @model_validator(mode="after")
     def _check(self) -> Strengths:
-        for n in ("Xc", "Yc"):
-            v = getattr(self, n)
-            if v is not None and not v > 0.0:
-                raise InvalidMaterialError(
-                    f"{n} = {v!r} must be positive: give compressive strengths as "
-                    "positive magnitudes"
-                )
-        for n in ("Xt", "Yt", "S12", "S23", "yield_strength"):
-            v = getattr(self, n)
-            if v is not None and not v > 0.0:
-                raise InvalidMaterialError(f"{n} = {v!r} must be positive")
+        _positive(self, ("Xc", "Yc"), ": give compressive strengths as positive magnitudes")
+        _positive(self, ("Xt", "Yt", "S12", "S23", "yield_strength"))
         return self
 
     def as_dict(self) -> dict[str, float]:
@@ -203,24 +196,38 @@ class _MaterialBase(_Frozen):
     notes: dict[str, str] = Field(default_factory=dict)
 
     _COMMON_KINDS: ClassVar[dict[str, str]] = {"density": "density", "fibre_diameter": "length"}
-
-    @model_validator(mode="before")
-    @classmethod
-    def _parse_common(cls, data: Any) -> Any:
-        if not isinstance(data, dict):
-            return data
-        out = dict(data)
-        for key, kind in cls._COMMON_KINDS.items():
-            if out.get(key) is not None:
-                out[key] = parse_quantity(out[key], kind, key)
-        return out
+    #: Fields other than the elastic constants, carried over to a converted copy (see ``ti()``).
+    _LABEL_FIELDS: ClassVar[tuple[str, ...]] = (
+        "key", "name", "role", "density", "fibre_diameter", "strengths", "source", "notes",
+    )
 
     def _check_common(self) -> None:
-        _positive(self, ("density", "fibre_diameter"), "a physical size")
-        for n in ("density", "fibre_diameter"):
-            v = getattr(self, n)
-            if v is not None and not math.isfinite(v):
-                raise InvalidMaterialError(f"{n} = {v!r} must be finite")
+        _positive(self, ("density", "fibre_diameter"), " (a physical size)")
+
+    def _labels(self) -> dict[str, Any]:
+        return {k: getattr(self, k) for k in self._LABEL_FIELDS}
+
+    def _poisson(self, E: str, nu: str, G: str, neither: str) -> float:
+        """Return ``nu`` as given, else E / (2 G) - 1 from the shear modulus."""
+        nu_v, G_v = getattr(self, nu), getattr(self, G)
+        if nu_v is None and G_v is None:
+            raise InvalidMaterialError(neither)
+        return float(nu_v) if nu_v is not None else getattr(self, E) / (2.0 * G_v) - 1.0
+
+    def _settle_shear(self, E: str, nu: str, G: str, nu_value: float) -> None:
+        """Check a given shear modulus against E / (2 (1 + nu)); fill in the one not given."""
+        E_v, G_given = getattr(self, E), getattr(self, G)
+        G_value = E_v / (2.0 * (1.0 + nu_value))
+        if G_given is not None and abs(G_value - G_given) > CONSISTENCY_RTOL * G_given:
+            raise InvalidMaterialError(
+                f"inconsistent inputs: {G} = {G_given:.6g} Pa but {E} / (2 (1 + {nu})) = "
+                f"{G_value:.6g} Pa from {E} = {E_v:.6g} Pa, {nu} = {nu_value:.6g}; "
+                f"give only one of {nu} and {G}"
+            )
+        if getattr(self, nu) is None:
+            self.__dict__[nu] = nu_value
+        if G_given is None:
+            self.__dict__[G] = G_value
 
     def _check_positive_definite(self) -> None:
         C = self.stiffness()
@@ -253,10 +260,7 @@ class _MaterialBase(_Frozen):
         ElasticConstants
             Model key ``"constituent"``, source = this material's source.
         """
-        names = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")
-        vals: dict[str, Any] = {n: getattr(self, n) for n in names}
-        for n in ("alpha1", "alpha2", "alpha3"):
-            vals[n] = getattr(self, n)
+        vals = {n: getattr(self, n) for n in (*CONSTANT_NAMES, "alpha1", "alpha2", "alpha3")}
         return ElasticConstants(**vals, model="constituent", source=self.source)
 
     def thermal_expansion(self) -> Array | None:
@@ -351,26 +355,14 @@ class Isotropic(_MaterialBase):
     @model_validator(mode="after")
     def _check(self) -> Isotropic:
         self._check_common()
-        _positive(self, ("E", "G"), "moduli must be positive")
-        if self.nu is None and self.G is None:
-            raise InvalidMaterialError(
-                "give nu (Poisson ratio) or G (shear modulus); neither given"
-            )
-        nu = self.nu if self.nu is not None else self.E / (2.0 * self.G) - 1.0  # type: ignore[operator]
+        _positive(self, ("E", "G"), " (moduli must be positive)")
+        nu = self._poisson("E", "nu", "G",
+                           "give nu (Poisson ratio) or G (shear modulus); neither given")
         if not -1.0 < nu < 0.5:
             raise InvalidMaterialError(
                 f"nu = {nu:.6g} makes the stiffness not positive definite: need -1 < nu < 0.5"
             )
-        G = self.E / (2.0 * (1.0 + nu))
-        if self.G is not None and abs(G - self.G) > CONSISTENCY_RTOL * self.G:
-            raise InvalidMaterialError(
-                f"inconsistent inputs: G = {self.G:.6g} Pa but E / (2 (1 + nu)) = {G:.6g} Pa"
-                f" from E = {self.E:.6g} Pa, nu = {nu:.6g}; give only one of nu and G"
-            )
-        if self.nu is None:
-            self.__dict__["nu"] = nu
-        if self.G is None:
-            self.__dict__["G"] = G
+        self._settle_shear("E", "nu", "G", nu)
         return self
 
     # Uniform accessors (axis 1, 2, 3 are all alike).
@@ -422,9 +414,7 @@ class Isotropic(_MaterialBase):
             With G12 = G and alpha1 = alpha2 = alpha.
         """
         return TransverselyIsotropic(
-            key=self.key, name=self.name, role=self.role, density=self.density,
-            fibre_diameter=self.fibre_diameter, strengths=self.strengths, source=self.source,
-            notes=self.notes, E1=self.E, E2=self.E, nu12=self.nu12, G12=self.G12, nu23=self.nu12,
+            **self._labels(), E1=self.E, E2=self.E, nu12=self.nu12, G12=self.G12, nu23=self.nu12,
             alpha1=self.alpha, alpha2=self.alpha,
         )
 
@@ -481,33 +471,22 @@ class TransverselyIsotropic(_MaterialBase):
     @model_validator(mode="after")
     def _check(self) -> TransverselyIsotropic:
         self._check_common()
-        _positive(self, ("E1", "E2", "G12", "G23"), "moduli must be positive")
-        if self.nu23 is None and self.G23 is None:
-            raise InvalidMaterialError("give nu23 or G23 (transverse shear); neither given")
+        _positive(self, ("E1", "E2", "G12", "G23"), " (moduli must be positive)")
+        nu23 = self._poisson("E2", "nu23", "G23",
+                             "give nu23 or G23 (transverse shear); neither given")
         limit12 = math.sqrt(self.E1 / self.E2)
         if not abs(self.nu12) < limit12:
             raise InvalidMaterialError(
                 f"nu12 = {self.nu12:.6g} makes the stiffness not positive definite: need "
                 f"|nu12| < sqrt(E1 / E2) = {limit12:.6g} (Jones 1999 Sec. 2.4)"
             )
-        nu23 = self.nu23 if self.nu23 is not None else self.E2 / (2.0 * self.G23) - 1.0  # type: ignore[operator]
         upper = 1.0 - 2.0 * self.nu12**2 * self.E2 / self.E1
         if not -1.0 < nu23 < upper:
             raise InvalidMaterialError(
                 f"nu23 = {nu23:.6g} (with nu12 = {self.nu12:.6g}) makes the stiffness not positive "
                 f"definite: need -1 < nu23 < 1 - 2 nu12^2 E2 / E1 = {upper:.6g}"
             )
-        G23 = self.E2 / (2.0 * (1.0 + nu23))
-        if self.G23 is not None and abs(G23 - self.G23) > CONSISTENCY_RTOL * self.G23:
-            raise InvalidMaterialError(
-                f"inconsistent inputs: G23 = {self.G23:.6g} Pa but E2 / (2 (1 + nu23)) = "
-                f"{G23:.6g} Pa from E2 = {self.E2:.6g} Pa, nu23 = {nu23:.6g}; "
-                "give only one of nu23 and G23"
-            )
-        if self.nu23 is None:
-            self.__dict__["nu23"] = nu23
-        if self.G23 is None:
-            self.__dict__["G23"] = G23
+        self._settle_shear("E2", "nu23", "G23", nu23)
         self._check_positive_definite()
         return self
 
@@ -605,7 +584,7 @@ class Orthotropic(_MaterialBase):
     @model_validator(mode="after")
     def _check(self) -> Orthotropic:
         self._check_common()
-        _positive(self, ("E1", "E2", "E3", "G12", "G13", "G23"), "moduli must be positive")
+        _positive(self, ("E1", "E2", "E3", "G12", "G13", "G23"), " (moduli must be positive)")
         for nu, Ei, Ej, i, j in (
             (self.nu12, self.E1, self.E2, "1", "2"),
             (self.nu13, self.E1, self.E3, "1", "3"),
@@ -677,9 +656,7 @@ class Orthotropic(_MaterialBase):
                     "the fibre estimates need a transversely isotropic fibre"
                 )
         return TransverselyIsotropic(
-            key=self.key, name=self.name, role=self.role, density=self.density,
-            fibre_diameter=self.fibre_diameter, strengths=self.strengths, source=self.source,
-            notes=self.notes, E1=self.E1, E2=self.E2, nu12=self.nu12, G12=self.G12,
+            **self._labels(), E1=self.E1, E2=self.E2, nu12=self.nu12, G12=self.G12,
             nu23=self.nu23, alpha1=self.alpha1, alpha2=self.alpha2,
         )
 

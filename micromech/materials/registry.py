@@ -25,7 +25,6 @@ from __future__ import annotations
 import difflib
 import os
 import re
-import tomllib
 from collections.abc import Iterable, Iterator, Mapping
 from functools import lru_cache
 from pathlib import Path
@@ -39,7 +38,7 @@ from micromech.materials.models import (
     TransverselyIsotropic,
     material_from_dict,
 )
-from micromech.resources import data_directory
+from micromech.resources import data_directory, read_toml
 
 __all__ = [
     "ENV_VAR",
@@ -85,16 +84,6 @@ def _expand(path: Path | str) -> list[Path]:
         return [p]
     raise RegistryError(f"materials path {str(p)!r} does not exist (expected a .toml file or a "
                         "folder of them)")
-
-
-def _read_toml(path: Path) -> dict[str, Any]:
-    try:
-        with path.open("rb") as fh:
-            return tomllib.load(fh)
-    except tomllib.TOMLDecodeError as exc:
-        raise RegistryError(f"{path}: malformed TOML: {exc}") from None
-    except UnicodeDecodeError as exc:
-        raise RegistryError(f"{path}: not UTF-8 text: {exc}") from None
 
 
 class Registry(Mapping[str, Material]):
@@ -149,7 +138,7 @@ class Registry(Mapping[str, Material]):
             self._add_file(rf)
 
     def _add_file(self, path: Path) -> None:
-        data = _read_toml(path)
+        data = read_toml(path, RegistryError)
         for raw_key, entry in data.items():
             key = raw_key.strip().lower()
             if not isinstance(entry, dict):
@@ -178,8 +167,8 @@ class Registry(Mapping[str, Material]):
             self._file[key] = path
             self._materials[key] = mat
 
-    # Mapping interface
-    def __getitem__(self, key: str) -> Material:
+    def _known(self, key: str) -> str:
+        """Return the stored form of a known key (lower case); raise for an unknown one."""
         k = str(key).strip().lower()
         if k not in self._materials:
             near = difflib.get_close_matches(k, list(self._materials), n=3, cutoff=0.4)
@@ -188,7 +177,11 @@ class Registry(Mapping[str, Material]):
                 f"unknown material {key!r}{hint} (`micromech materials` lists the "
                 f"{len(self._materials)} known keys)"
             )
-        return self._materials[k]
+        return k
+
+    # Mapping interface
+    def __getitem__(self, key: str) -> Material:
+        return self._materials[self._known(key)]
 
     def __iter__(self) -> Iterator[str]:
         return iter(sorted(self._materials))
@@ -232,8 +225,7 @@ class Registry(Mapping[str, Material]):
         dict
             A copy of the TOML table.
         """
-        self[key]  # raises for unknown keys
-        return dict(self._raw[key.strip().lower()])
+        return dict(self._raw[self._known(key)])
 
     def source_file(self, key: str) -> Path:
         """Return the file that defines ``key``.
@@ -248,8 +240,7 @@ class Registry(Mapping[str, Material]):
         Path
             Absolute path of the TOML file.
         """
-        self[key]
-        return self._file[key.strip().lower()]
+        return self._file[self._known(key)]
 
     def resolve(self, value: Any, label: str = "material") -> Material:
         """Turn a registry key, an inline table, or ``use = KEY`` plus overrides into a material.

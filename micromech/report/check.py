@@ -25,6 +25,7 @@ from typing import Any
 from micromech.errors import InputError
 from micromech.report.html import escape, html_document, html_table, image_tag
 from micromech.report.markdown import markdown_table, write_atomic
+from micromech.rve.causes import format_property, model_label, property_kind
 from micromech.units import format_si
 
 __all__ = [
@@ -48,21 +49,7 @@ _HEADERS = ["property", "simulated", "lower bound", "upper bound", "best estimat
             "expected band", "verdict"]
 
 
-def _is_poisson(name: str) -> bool:
-    return name.startswith("nu")
-
-
-def _fmt(name: str, value: float | None) -> str:
-    if value is None:
-        return "-"
-    if _is_poisson(name):
-        return f"{value:.4g}"
-    return format_si(float(value), "pressure")
-
-
 def _label(key: str | None) -> str:
-    from micromech.rve.causes import model_label
-
     return "-" if key is None else model_label(key)
 
 
@@ -82,10 +69,12 @@ def verdict_rows(result: Any) -> tuple[list[str], list[list[str]]]:
     rows = []
     for name, p in result.properties.items():
         best = p.best_estimate
-        best_txt = "-" if best is None else f"{_fmt(name, best)} ({_label(p.best_model)})"
-        band = "-" if p.band is None else f"{_fmt(name, p.band[0])} .. {_fmt(name, p.band[1])}"
-        rows.append([name, _fmt(name, p.value), _fmt(name, p.lower_bound),
-                     _fmt(name, p.upper_bound), best_txt, band, p.verdict])
+        best_txt = ("-" if best is None
+                    else f"{format_property(best, name)} ({_label(p.best_model)})")
+        band = ("-" if p.band is None
+                else f"{format_property(p.band[0], name)} .. {format_property(p.band[1], name)}")
+        rows.append([name, format_property(p.value, name), format_property(p.lower_bound, name),
+                     format_property(p.upper_bound, name), best_txt, band, p.verdict])
     return list(_HEADERS), rows
 
 
@@ -240,8 +229,8 @@ def _draw_curve(ax: Any, curve: Any) -> None:
 def _draw_property(ax: Any, prop: Any) -> None:
     """Draw one interval chart: bounds, bands, estimates and the simulated value."""
     name = prop.name
-    scale, unit = (1.0, "") if _is_poisson(name) else (
-        (1e6, "MPa") if "strength" in name else (1e9, "GPa"))
+    scale, unit = {"poisson": (1.0, ""), "strength": (1e6, "MPa")}.get(
+        property_kind(name), (1e9, "GPa"))
     pts = [prop.value, prop.lower_bound, prop.upper_bound, *prop.estimates.values()]
     if prop.band:
         pts += list(prop.band)

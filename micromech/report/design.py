@@ -13,7 +13,7 @@ from typing import Any
 
 import numpy as np
 
-from micromech.design.inverse import SizingResult, TargetSizing
+from micromech.design.inverse import FractionInterval, SizingResult, TargetSizing
 from micromech.design.sweeps import Sweep
 from micromech.design.targets import format_value, property_unit
 from micromech.design.uncertainty import MonteCarloResult
@@ -70,16 +70,18 @@ def _target_rows(t: TargetSizing) -> list[list[str]]:
         else:
             rows.append([_SHORT.get(k, k), "-", "-", "-", s.status])
     if t.bounds is not None:
-        iv = t.bounds.interval
-        lo = t.bounds.possible[0].low if t.bounds.possible else None
-        hi = t.bounds.possible[-1].high if t.bounds.possible else None
-        rows.append([
-            "bounds admit", "-" if iv is None else _span(iv[0], iv[1]),
-            "-" if lo is None else _span(lo.weight_fraction, hi.weight_fraction),  # type: ignore[union-attr]
-            "-" if lo is None else _span(lo.density, hi.density, "density"),  # type: ignore[union-attr]
-            t.bounds.status,
-        ])
+        cells = ["-", "-", "-"]
+        if t.bounds.possible:
+            lo, hi = t.bounds.possible[0].low, t.bounds.possible[-1].high
+            cells = [_span(lo.volume_fraction, hi.volume_fraction),
+                     _span(lo.weight_fraction, hi.weight_fraction),
+                     _span(lo.density, hi.density, "density")]
+        rows.append(["bounds admit", *cells, t.bounds.status])
     return rows
+
+
+def _window(intervals: Sequence[FractionInterval]) -> str:
+    return ", ".join(i.describe() for i in intervals) or "none"
 
 
 def sizing_table(result: SizingResult, *, title: str = "") -> str:
@@ -104,12 +106,10 @@ def sizing_table(result: SizingResult, *, title: str = "") -> str:
         lines += _table(["model", "Vf", "weight fraction", "density", "status"], _target_rows(t))
         lines.append(t.message)
     lines += ["", "window meeting all targets"]
-    rows = [[_SHORT.get(k, k), ", ".join(i.describe() for i in v) or "none"]
-            for k, v in result.windows.items()]
-    rows.append(["every model", ", ".join(i.describe() for i in result.common_window) or "none"])
+    rows = [[_SHORT.get(k, k), _window(v)] for k, v in result.windows.items()]
+    rows.append(["every model", _window(result.common_window)])
     if result.bounds_window is not None:
-        rows.append(["bounds admit", ", ".join(i.describe() for i in result.bounds_window)
-                     or "none"])
+        rows.append(["bounds admit", _window(result.bounds_window)])
     lines += _table(["model", "fractions"], rows)
     lines += [result.message, "", f"Caution: {CAUTION}"]
     return "\n".join(lines)

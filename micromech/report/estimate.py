@@ -11,6 +11,7 @@ from typing import Any
 
 import numpy as np
 
+from micromech.errors import InputError
 from micromech.homogenize.estimate import BOUND_KEYS, MODEL_KEYS, Estimates, estimate
 from micromech.homogenize.strength import CAUTION
 
@@ -51,6 +52,8 @@ ISOTROPIC_PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
 )
 _ROWS = {"aligned": PROPERTIES, "random_in_plane": PLANAR_PROPERTIES,
          "random_3d": ISOTROPIC_PROPERTIES}
+#: Property name -> (unit, factor from SI), from every row table (the plot's axis labels).
+_UNITS = {name: (unit, factor) for rows in _ROWS.values() for name, _, unit, factor in rows}
 _PLOT_DEFAULTS = {
     "aligned": ("E1", "E2", "G12", "G23", "nu12", "alpha2"),
     "random_in_plane": ("E1", "E3", "G12", "G13", "nu12", "alpha1"),
@@ -166,8 +169,6 @@ def check_plot_path(path: str | Path, field: str = "path") -> Path:
     InputError
         If the suffix is not a supported format or the folder does not exist.
     """
-    from micromech.errors import InputError
-
     p = Path(path)
     suffix = p.suffix.lower().lstrip(".")
     if suffix not in PLOT_FORMATS:
@@ -225,13 +226,12 @@ def plot_estimates(
     v = np.linspace(0.0, top, points)
     sweep = estimate(comp.with_fraction(v), case=est.case, strengths=False)
     names = [p for p in properties if any(sweep.models[k].get(p) is not None for k in sweep)]
-    units = {n: (u, f) for n, _, u, f in PROPERTIES}
     ncol = 3
     nrow = max(1, -(-len(names) // ncol))
     fig, axes = plt.subplots(nrow, ncol, figsize=(4.2 * ncol, 3.3 * nrow), squeeze=False)
     case_vf = np.atleast_1d(np.asarray(comp.volume_fraction, dtype=float))
     for ax, name in zip(axes.ravel(), names, strict=False):
-        unit, factor = units.get(name, ("", 1.0))
+        unit, factor = _UNITS.get(name, ("", 1.0))
         band = sweep.band(name)
         if band is not None:
             ax.fill_between(v * 100, band[0] * factor, band[1] * factor, color="0.85",

@@ -13,11 +13,11 @@ import numpy as np
 
 from micromech.laminate.analysis import LaminateAnalysis
 from micromech.laminate.clt import LOAD_NAMES, POINTS
-from micromech.laminate.envelope import Envelope
+from micromech.laminate.envelope import DISPLAY_UNITS, Envelope
 from micromech.laminate.failure import CRITERIA
 from micromech.safety import CAUTION
 
-__all__ = ["CAUTION", "laminate_json", "laminate_table"]
+__all__ = ["CAUTION", "envelope_intercepts_table", "laminate_json", "laminate_table"]
 
 
 _LOAD_UNITS = {"Nx": ("N/mm", 1e-3), "Ny": ("N/mm", 1e-3), "Nxy": ("N/mm", 1e-3),
@@ -46,8 +46,11 @@ def _abd_chopped(analysis: LaminateAnalysis) -> tuple[np.ndarray, np.ndarray, np
     return _chop(lam.A, sA), _chop(lam.B, sA * lam.thickness), _chop(lam.D, sD)
 
 
-def _stress_dict(s: np.ndarray, names: tuple[str, str, str]) -> dict[str, float]:
-    return {n: float(v) for n, v in zip(names, s, strict=True)}
+_S_MATERIAL = ("s11", "s22", "s12")
+
+
+def _named(v: np.ndarray, names: tuple[str, str, str]) -> dict[str, float]:
+    return {n: float(x) for n, x in zip(names, v, strict=True)}
 
 
 def _report_points(analysis: LaminateAnalysis) -> np.ndarray:
@@ -108,17 +111,12 @@ def laminate_json(
             k = int(points[i])
             tot, th = analysis.response.total, analysis.response.thermal
             entry["point"] = POINTS[k]
-            entry["stress_material"] = _stress_dict(tot.stress_material[i, k], ("s11", "s22",
-                                                                                  "s12"))
-            entry["stress_laminate"] = _stress_dict(tot.stress_laminate[i, k], ("sx", "sy",
-                                                                                 "sxy"))
-            entry["strain_material"] = _stress_dict(tot.strain_material[i, k], ("e11", "e22",
-                                                                                 "g12"))
-            entry["stress_material_thermal"] = _stress_dict(th.stress_material[i, k],
-                                                            ("s11", "s22", "s12"))
+            entry["stress_material"] = _named(tot.stress_material[i, k], _S_MATERIAL)
+            entry["stress_laminate"] = _named(tot.stress_laminate[i, k], ("sx", "sy", "sxy"))
+            entry["strain_material"] = _named(tot.strain_material[i, k], ("e11", "e22", "g12"))
+            entry["stress_material_thermal"] = _named(th.stress_material[i, k], _S_MATERIAL)
             entry["stress_material_points"] = {
-                POINTS[j]: _stress_dict(tot.stress_material[i, j], ("s11", "s22", "s12"))
-                for j in range(3)
+                POINTS[j]: _named(tot.stress_material[i, j], _S_MATERIAL) for j in range(3)
             }
         else:
             entry["point"] = None
@@ -307,11 +305,37 @@ def _ply_table(analysis: LaminateAnalysis) -> list[str]:
         if crits:
             for c in crits:
                 row += _fmt(float(np.min(analysis.criteria[c].strength_ratio[i])), 12)
-            res = analysis.criteria[analysis.criterion]
-            j = int(np.argmin(res.strength_ratio[i]))
-            row += f"  {res.mode[i, j]:<24}" + ("<<" if i in critical else "")
+            mode = analysis.criteria[analysis.criterion].mode[i, k]  # k: its governing point
+            row += f"  {mode:<24}" + ("<<" if i in critical else "")
         out.append(row)
     if crits:
         out.append("R = strength ratio (load multiplier to failure; thermal part held fixed); "
                    "<< marks the critical ply")
     return out
+
+
+def envelope_intercepts_table(envelopes: list[Envelope]) -> str:
+    """Render the intercepts of failure envelopes on their axes, one row per criterion.
+
+    Parameters
+    ----------
+    envelopes : list of Envelope
+        Envelopes in the same two axes (e.g. one per criterion); at least one.
+
+    Returns
+    -------
+    str
+        A heading naming the axes and their units, then per envelope the first-ply failure
+        loads along +A, -A, +B, -B (``never`` where that half axis never fails).
+    """
+    ax = envelopes[0].axes
+    (fa, ua), (fb, ub) = (DISPLAY_UNITS[u] for u in envelopes[0].units)
+    factors = {ax[0]: fa, ax[1]: fb}
+    keys = (f"+{ax[0]}", f"-{ax[0]}", f"+{ax[1]}", f"-{ax[1]}")
+    out = [f"First-ply failure envelope in {ax[0]} ({ua}), {ax[1]} ({ub}): intercepts on the "
+           "axes", f"  {'criterion':<12}" + "".join(f"{k:>12}" for k in keys)]
+    for e in envelopes:
+        cells = ("never" if np.isinf(v) else f"{v:.4g}"
+                 for v in (e.intercepts[k] * factors[k[1:]] for k in keys))
+        out.append(f"  {e.criterion:<12}" + "".join(f"{c:>12}" for c in cells))
+    return "\n".join(out)

@@ -15,7 +15,7 @@ from pathlib import Path
 
 from micromech.errors import InputError
 
-__all__ = ["escape_cell", "file_mode", "markdown_table", "write_atomic"]
+__all__ = ["escape_cell", "markdown_table", "write_atomic"]
 
 
 def escape_cell(text: object) -> str:
@@ -103,7 +103,7 @@ def write_atomic(path: str | Path, data: str | bytes) -> Path:
             fh.write(payload)
             fh.flush()
             os.fsync(fh.fileno())
-        os.chmod(tmp, file_mode(target))
+        os.chmod(tmp, _file_mode(target))
         os.replace(tmp, target)
     except BaseException:
         if os.path.exists(tmp):
@@ -112,7 +112,7 @@ def write_atomic(path: str | Path, data: str | bytes) -> Path:
     return target
 
 
-def file_mode(path: Path) -> int:
+def _file_mode(path: Path) -> int:
     """Permissions for an output: those of the file it replaces, else 0o666 less the umask.
 
     Parameters

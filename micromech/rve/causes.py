@@ -36,6 +36,7 @@ __all__ = [
     "UD_PROPERTIES",
     "constant_of",
     "direction_of",
+    "format_property",
     "property_name",
     "Diagnosis",
     "consistency_reasons",
@@ -120,7 +121,21 @@ def property_kind(name: str) -> str:
     )
 
 
-def _fmt(value: float | None, name: str) -> str:
+def format_property(value: float | None, name: str) -> str:
+    """Format a property value for sentences and tables: SI prefix and unit, 4 digits.
+
+    Parameters
+    ----------
+    value : float or None
+        The value, SI (Pa for moduli and strengths).
+    name : str
+        Property name (a Poisson ratio is shown as a plain number).
+
+    Returns
+    -------
+    str
+        E.g. ``"72 GPa"``, ``"0.3"``; ``"-"`` for None.
+    """
     if value is None:
         return "-"
     if property_kind(name) == "poisson":
@@ -360,7 +375,8 @@ def likely_causes(
                 residual = r
                 out.append((-10.0 + abs(math.log(r)), (
                     f"A unit slip: {name} is {ratio:.3g} times {label} = "
-                    f"{_fmt(best_value, name)}, close to {_factor_text(f)}{_rest(r)}. {text}")))
+                    f"{format_property(best_value, name)}, close to "
+                    f"{_factor_text(f)}{_rest(r)}. {text}")))
                 break
     # 2. a wrong area or length (also on top of a unit slip); alike factors share a sentence
     if residual > 0 and ctx.size is not None and ctx.direction is not None:
@@ -391,8 +407,9 @@ def likely_causes(
         cm = ctx.constrained_modulus
         if kind == "modulus" and cm is not None and abs(math.log(value / cm)) < math.log(1.1):
             out.append((-3.0, (
-                f"Over-constrained boundary conditions: {name} = {_fmt(value, name)} is close "
-                f"to the constrained modulus {_fmt(cm, name)} of {label} (lateral "
+                f"Over-constrained boundary conditions: {name} = "
+                f"{format_property(value, name)} is close to the constrained modulus "
+                f"{format_property(cm, name)} of {label} (lateral "
                 "contraction prevented); let the lateral faces contract (periodic or "
                 "symmetry conditions), do not hold them fixed.")))
         else:
@@ -777,7 +794,8 @@ def consistency_reasons(
                 t = STRENGTH_SYMMETRY_TOLERANCE if "strength" in p else tol
                 if mean > 0 and abs(vp - vq) / mean > t:
                     text = (
-                        f"{p} = {_fmt(vp, p)} and {q} = {_fmt(vq, q)} differ by "
+                        f"{p} = {format_property(vp, p)} and {q} = {format_property(vq, q)} "
+                        "differ by "
                         f"{100 * abs(vp - vq) / mean:.1f} % (more than {100 * t:.0f} %) though "
                         f"{why}; check the load cases, sizes and boundary conditions of both."
                     )

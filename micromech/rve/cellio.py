@@ -1,24 +1,25 @@
-"""Writing fibre cells: CSV text for meshers, atomic file replacement and a drawing of the cell.
+"""Writing fibre cells: CSV text for meshers, a terminal summary, a drawing of the cell.
 
 Used by :class:`micromech.rve.geometry.FibreArrangement`; every file carries :data:`CAUTION`.
 """
 
 from __future__ import annotations
 
+import io
 import os
-import tempfile
 from pathlib import Path
 from typing import TYPE_CHECKING
 
 from micromech.errors import InputError
-from micromech.report.markdown import file_mode, write_atomic
+from micromech.report.markdown import write_atomic
+from micromech.rve.cellstats import rve_size_guidance
 from micromech.safety import CAUTION
 from micromech.units import parse_quantity
 
 if TYPE_CHECKING:  # pragma: no cover
     from micromech.rve.geometry import FibreArrangement
 
-__all__ = ["CAUTION", "csv_text", "write_atomic", "plot_arrangement"]
+__all__ = ["CAUTION", "arrangement_text", "csv_text", "write_atomic", "plot_arrangement"]
 
 
 def csv_text(arrangement: FibreArrangement, unit: str = "um") -> str:
@@ -72,6 +73,52 @@ def csv_text(arrangement: FibreArrangement, unit: str = "um") -> str:
     return "\n".join(lines) + "\n"
 
 
+def arrangement_text(
+    arrangement: FibreArrangement, title: str, *, written: str | os.PathLike[str] | None = None,
+    plot: str | os.PathLike[str] | None = None,
+) -> str:
+    """Terminal summary of a cell: fibres, fraction, size, neighbour statistics, guidance.
+
+    Parameters
+    ----------
+    arrangement : FibreArrangement
+        The cell.
+    title : str
+        First line (underlined).
+    written, plot : path-like, optional
+        Files written for the cell (centres, drawing), listed at the end.
+
+    Returns
+    -------
+    str
+        The text, ending with the caution (no final newline).
+    """
+    a = arrangement
+    lx, ly = a.cell_size
+    r, d, st = a.radius, a.diameter, a.stats
+    guide = rve_size_guidance(a)
+    rows = [
+        ("packing", a.method + ("" if a.seed is None else f" (seed {a.seed})")),
+        ("fibres", f"{a.n_fibres} (+{a.images()[1].size} images cutting the faces)"),
+        ("fibre diameter", f"{d * 1e6:.4g} um"),
+        ("volume fraction", f"achieved {a.volume_fraction:.4f} (asked {a.target_fraction:.4f})"),
+        ("cell size", f"{lx * 1e6:.4g} x {ly * 1e6:.4g} um = {lx / r:.4g} x {ly / r:.4g} "
+                      "fibre radii"),
+        ("required min gap", f"{a.min_gap * 1e6:.4g} um ({a.min_gap / d:.3g} d)"),
+        ("nearest distance [d]", f"mean {st.distance_mean:.4f}, min {st.distance_min:.4f}, "
+                                 f"max {st.distance_max:.4f}, std {st.distance_std:.4f}"),
+        ("nearest gap [d]", f"mean {st.gap_mean:.4f}, min {st.gap_min:.4f}, "
+                            f"std {st.gap_std:.4f}"),
+        ("RVE size guidance", f"{guide.verdict}: {guide.message}"),
+    ]
+    if written is not None:
+        rows.append(("written", str(written)))
+    if plot is not None:
+        rows.append(("plot", str(plot)))
+    lines = [title, "-" * len(title), *(f"  {name:<22}{value}" for name, value in rows)]
+    return "\n".join(lines) + f"\n\n{CAUTION}"
+
+
 def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]) -> Path:
     """Draw the cell, its fibres and their images to an image file (matplotlib, Agg).
 
@@ -114,17 +161,8 @@ def plot_arrangement(arrangement: FibreArrangement, path: str | os.PathLike[str]
                      f"Vf = {arrangement.volume_fraction:.4f} (images dashed)", fontsize=9)
         fig.text(0.5, 0.005, CAUTION, ha="center", va="bottom", fontsize=5.5, wrap=True)
         out = Path(path)
-        suffix = out.suffix or ".png"
-        fd, tmp = tempfile.mkstemp(dir=out.parent or Path("."), prefix=f".{out.name}.",
-                                   suffix=suffix)
-        os.close(fd)
-        try:
-            fig.savefig(tmp, dpi=150, bbox_inches="tight")
-            os.chmod(tmp, file_mode(out))
-            os.replace(tmp, out)
-        except BaseException:
-            Path(tmp).unlink(missing_ok=True)
-            raise
+        buf = io.BytesIO()
+        fig.savefig(buf, format=out.suffix.lstrip(".") or "png", dpi=150, bbox_inches="tight")
     finally:
         plt.close(fig)
-    return out
+    return write_atomic(out, buf.getvalue())

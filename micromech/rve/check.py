@@ -254,12 +254,13 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
     hs_ok = comp.arrangement == "random" or (
         comp.arrangement == "hexagonal" and comp.inclusion == "continuous")
     if stack:
-        models = {f"stack_{k}": _stack(v, angles) for k, v in _plies(est).items()}
+        plies = _plies(est)
+        models = {f"stack_{k}": _stack(v, angles) for k, v in plies.items()}
         consts = {k: r.constants for k, r in models.items()}
         best = "stack_mori_tanaka"
         C_best = models[best].stiffness
         grid_consts = _stack(mt_grid, angles).constants
-        bands = _stack_bands(est, vf, comp.arrangement, angles, names)
+        bands = _stack_bands(plies, consts, vf, comp.arrangement, angles, names)
     else:
         consts = {k: v for k, v in est.items() if k not in ("voigt", "reuss")}
         best = "mori_tanaka"
@@ -268,6 +269,7 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
         bands = {}
     C_V, S_R = _bounds(case, angles)
     S_V = np.linalg.inv(C_V)
+    lo_key, hi_key = ((f"stack_{k}" for k in _HS_MODELS) if stack else _HS_MODELS)
     out: dict[str, Expectation] = {}
     for name in names:
         kind = property_kind(name)
@@ -290,7 +292,6 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
             else:
                 band = particle_band(bv, comp.inclusion)
         hs = None
-        lo_key, hi_key = ((f"stack_{k}" for k in _HS_MODELS) if stack else _HS_MODELS)
         # square arrays are not transversely isotropic: only the axial constants keep the band
         applicable = hs_ok or (not stack and name in ("E1", "G12", "G13"))
         if kind in ("modulus", "shear") and lo_key in values and hi_key in values and applicable:
@@ -309,14 +310,18 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
 
 
 def _stack_bands(
-    est: Mapping[str, ElasticConstants], vf: float, arrangement: str,
-    angles: Sequence[float], names: Sequence[str],
+    plies: Mapping[str, ElasticConstants], stacked: Mapping[str, ElasticConstants], vf: float,
+    arrangement: str, angles: Sequence[float], names: Sequence[str],
 ) -> dict[str, Band]:
-    """Bands of stack properties: stacks of plies at the ends of their expected bands."""
-    plies = _plies(est)
+    """Bands of stack properties: stacks of plies at the ends of their expected bands.
+
+    ``stacked`` holds the stacks of the estimates' ``plies`` (keys ``stack_...``); the band
+    also takes in those of the Mori-Tanaka and Halpin-Tsai plies.
+    """
     corners = corner_plies(plies["mori_tanaka"], vf, arrangement,
                            halpin_tsai=plies.get("halpin_tsai"))
     stacks = [_stack(c, angles).constants for c in corners]
+    stacks += [stacked[k] for k in ("stack_mori_tanaka", "stack_halpin_tsai") if k in stacked]
     basis = (f"stacks of plies at the ends of their expected bands (measured spread of "
              f"Mori-Tanaka against full-field results, {arrangement} arrangement, and "
              "Halpin-Tsai (xi = 2) for E2)")
@@ -445,26 +450,13 @@ class CheckResult:
 # reading the simulated results
 
 
-def _gauge(direction: str, size: Sequence[float]) -> tuple[float, float]:
-    """Return (loaded area, gauge length) by the convention of :mod:`micromech.rve.ingest`."""
-    ax = {"x": 0, "y": 1, "z": 2}
-    if len(direction) == 1:
-        i = ax[direction]
-        o = [k for k in range(3) if k != i]
-        return size[o[0]] * size[o[1]], size[i]
-    i, j = ax[direction[0]], ax[direction[1]]
-    return size[i] * size[3 - i - j], size[j]
-
-
 def _read_curve(lc: Any, size: Sequence[float] | None) -> Any:
+    """Read a load case's history (the case file gives force/displacement or stress/strain)."""
     from micromech.rve.ingest import load_curve
 
-    if lc.mode == "force_displacement":
-        return load_curve(lc.file, lc.direction, size, force=lc.force,
-                          displacement=lc.displacement, lateral=lc.lateral,
-                          delimiter=lc.delimiter, skip_rows=lc.skip_rows)
-    return load_curve(lc.file, lc.direction, stress=lc.stress, strain=lc.strain,
-                      lateral=lc.lateral, delimiter=lc.delimiter, skip_rows=lc.skip_rows)
+    return load_curve(lc.file, lc.direction, size, force=lc.force, displacement=lc.displacement,
+                      stress=lc.stress, strain=lc.strain, lateral=lc.lateral,
+                      delimiter=lc.delimiter, skip_rows=lc.skip_rows)
 
 
 def _strength_limits(case: Any) -> tuple[float | None, float | None]:
@@ -587,41 +579,37 @@ def check_case(
             averaged_stress.append(lc.stress_values)
             averaged_strain.append(lc.strain_values)
             continue
+        d = lc.direction
         inputs.append(Path(lc.file))
         curve = _read_curve(lc, size)
         off = offset if offset is not None else (
             lc.offset if lc.offset is not None else case.check.get("offset", 0.002))
         rng = strain_range or lc.strain_range or case.check.get("strain_range")
         m = metrics_of_curve(curve, offset=off, fit_range=rng)
-        curves[lc.direction] = CurveResult(lc.direction, curve.strain, curve.stress, m,
-                                           str(lc.file))
-        name = property_name(arch, lc.direction)
-        values[name] = m.modulus
-        contexts[name] = Diagnosis(direction=lc.direction, size=size, source=lc.mode)
+        curves[d] = CurveResult(d, curve.strain, curve.stress, m, str(lc.file))
+        ctx = Diagnosis(direction=d, size=size, source=lc.mode)
+        name = property_name(arch, d)
+        values[name], contexts[name] = m.modulus, ctx
         for axis, nu in m.poisson.items():
-            pname = property_name(arch, lc.direction, axis)
-            values[pname] = nu
-            contexts[pname] = Diagnosis(direction=lc.direction, lateral=axis, size=size,
-                                        source=lc.mode)
+            pname = property_name(arch, d, axis)
+            values[pname], contexts[pname] = nu, replace(ctx, lateral=axis)
         if m.yield_strength is not None:
-            values[f"yield_strength_{lc.direction}"] = abs(m.yield_strength)
-        values[f"ultimate_strength_{lc.direction}"] = abs(m.ultimate_strength)
-        contexts[f"ultimate_strength_{lc.direction}"] = Diagnosis(
-            direction=lc.direction, size=size, source=lc.mode)
-        contexts[f"yield_strength_{lc.direction}"] = contexts[
-            f"ultimate_strength_{lc.direction}"]
+            values[f"yield_strength_{d}"] = abs(m.yield_strength)
+        values[f"ultimate_strength_{d}"] = abs(m.ultimate_strength)
+        contexts[f"yield_strength_{d}"] = contexts[f"ultimate_strength_{d}"] = ctx
         if not m.failed:
-            notes.append(f"Load case {lc.direction}: the run stopped before failure, so "
-                         f"ultimate_strength_{lc.direction} is only a lower limit.")
+            notes.append(f"Load case {d}: the run stopped before failure, so "
+                         f"ultimate_strength_{d} is only a lower limit.")
 
     # 2. stiffness from averaged load cases or a full matrix
-    eff = None
+    eff = eff_source = None
     if averaged_stress:
         eff = stiffness_from_load_cases(np.vstack(averaged_stress), np.vstack(averaged_strain))
+        eff_source, src = "load_cases", "stress_strain"
     elif rve.stiffness is not None:
         eff = stiffness_from_matrix(rve.stiffness)
+        eff_source, src = "matrix", "stiffness"
     if eff is not None:
-        src = "stiffness" if rve.stiffness is not None and not averaged_stress else "stress_strain"
         names = (_STACK_ALL if arch in _STACK_ARCH else _UD_ALL)
         for n in names:
             v = _const(eff.constants, n)
@@ -649,10 +637,8 @@ def check_case(
     results: dict[str, PropertyCheck] = {}
     for n in elastic:
         e = expect[n]
-        ctx = contexts.get(n, Diagnosis())
-        ctx = Diagnosis(direction=ctx.direction, lateral=ctx.lateral, size=ctx.size,
-                        source=ctx.source, fraction=vf, fraction_curve=e.fraction_curve,
-                        constrained_modulus=e.constrained_modulus)
+        ctx = replace(contexts.get(n, Diagnosis()), fraction=vf, fraction_curve=e.fraction_curve,
+                      constrained_modulus=e.constrained_modulus)
         est = dict(e.estimates)
         if keep:
             est = {k: v for k, v in est.items()
@@ -685,7 +671,7 @@ def check_case(
         case=case.name, path=case.path, architecture=arch, volume_fraction=vf,
         arrangement=case.composite.arrangement, properties=ordered, curves=curves,
         notes=tuple(notes), inputs=tuple(inputs), stiffness=eff,
-        stiffness_source=None if eff is None else ("load_cases" if averaged_stress else "matrix"),
+        stiffness_source=eff_source,
     )
 
 

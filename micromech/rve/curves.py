@@ -84,7 +84,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
-from micromech.rve.ingest import Curve
+from micromech.rve.ingest import Curve, _finite_1d
 
 __all__ = ["CurveMetrics", "curve_metrics", "metrics_of_curve"]
 
@@ -298,8 +298,8 @@ def curve_metrics(
     (70, 300)
     """
     label = f"curve {direction}" if direction else "curve"
-    x = _as_1d(strain, f"{label}: strain")
-    y = _as_1d(stress, f"{label}: stress")
+    x = _finite_1d(strain, f"{label}: strain")
+    y = _finite_1d(stress, f"{label}: stress")
     if x.size != y.size:
         raise InputError(f"{label}: strain has {x.size} points but stress has {y.size}")
     _check_positive(offset, f"{label}: offset")
@@ -449,7 +449,7 @@ def curve_metrics(
     poisson: dict[str, float] = {}
     xw = x[env][i0 : i1 + 1]
     for axis, values in (lateral or {}).items():
-        lat = _as_1d(values, f"{label}: lateral strain {axis}")
+        lat = _finite_1d(values, f"{label}: lateral strain {axis}")
         if lat.size != x.size:
             raise InputError(
                 f"{label}: lateral strain {axis} has {lat.size} points, the curve {x.size}"
@@ -484,22 +484,6 @@ def curve_metrics(
 
 # ------------------------------------------------------------------------------------------
 # helpers (all vectorised)
-
-
-def _as_1d(values: ArrayLike, label: str) -> Array:
-    try:
-        arr = np.asarray(values, dtype=np.float64)
-    except (TypeError, ValueError):
-        raise InputError(f"{label}: expected an array of numbers") from None
-    if arr.ndim != 1:
-        raise InputError(f"{label}: expected a 1-D array, got shape {arr.shape}")
-    if arr.size < 3:
-        raise InputError(f"{label}: {arr.size} point(s); at least 3 are needed")
-    finite = np.isfinite(arr)
-    if not finite.all():
-        i = int(np.argmin(finite))
-        raise InputError(f"{label}: point {i} is {float(arr[i])!r}; every value must be finite")
-    return arr
 
 
 def _check_positive(value: float, label: str) -> None:

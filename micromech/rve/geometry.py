@@ -7,8 +7,8 @@ fraction, nearest-neighbour statistics and the record needed to reproduce it (me
 mesher, together with the periodic images of the fibres that cut the cell faces.
 
 The statistics and the RVE-size guidance are in :mod:`micromech.rve.cellstats`, the packing
-numerics in :mod:`micromech.rve.packing` and the file writing in :mod:`micromech.rve.cellio`;
-their public names are re-exported here.
+numerics in :mod:`micromech.rve.packing` and the file writing and terminal summary in
+:mod:`micromech.rve.cellio`; their public names are re-exported here.
 
 Packing limits (``d`` fibre diameter, ``g`` minimum gap between fibre surfaces):
 
@@ -62,7 +62,13 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import FractionError, InputError
 from micromech.rve import packing
-from micromech.rve.cellio import CAUTION, csv_text, plot_arrangement, write_atomic
+from micromech.rve.cellio import (
+    CAUTION,
+    arrangement_text,
+    csv_text,
+    plot_arrangement,
+    write_atomic,
+)
 from micromech.rve.cellstats import (
     GUIDANCE_DELTA,
     NeighbourStats,
@@ -93,6 +99,7 @@ __all__ = [
     "nearest_neighbour_stats",
     "rve_size_guidance",
     "guidance_fibres",
+    "arrangement_text",
     "plot_arrangement",
 ]
 
@@ -377,12 +384,21 @@ def _check_limit(
         )
 
 
-def _check_regular_count(total: int, n: int, method: str) -> None:
+def _regular_inputs(
+    method: str, vf: Any, diameter: Any, n_per_side: Any, min_gap: Any
+) -> tuple[float, float, float, int]:
+    """Diameter, gap, fraction and repeats of a square or hexagonal cell, all checked."""
+    d = _length(diameter, "diameter", allow_zero=False)
+    g = _length(min_gap, "min_gap", allow_zero=True)
+    v = _fraction(vf, method, d, g)
+    n = _count(n_per_side, "n_per_side")
+    total = (1 if method == "square" else 2) * n * n
     if total > MAX_REGULAR_FIBRES:
         raise InputError(
             f"n_per_side = {n}: a {method} cell of {total} fibres exceeds the limit of "
             f"{MAX_REGULAR_FIBRES}; the periodic cell needs only one repeat"
         )
+    return d, g, v, n
 
 
 def _count(value: Any, field_name: str) -> int:
@@ -437,11 +453,7 @@ def square_cell(
     >>> round(a.volume_fraction, 12), a.n_fibres
     (0.5, 1)
     """
-    d = _length(diameter, "diameter", allow_zero=False)
-    g = _length(min_gap, "min_gap", allow_zero=True)
-    v = _fraction(vf, "square", d, g)
-    n = _count(n_per_side, "n_per_side")
-    _check_regular_count(n * n, n, "square")
+    d, g, v, n = _regular_inputs("square", vf, diameter, n_per_side, min_gap)
     s = d * math.sqrt(math.pi / (4.0 * v))
     k = (np.arange(n, dtype=np.float64) + 0.5) * s
     xx, yy = np.meshgrid(k, k, indexing="ij")
@@ -492,11 +504,7 @@ def hexagonal_cell(
     >>> round(a.volume_fraction, 12), a.n_fibres
     (0.6, 2)
     """
-    d = _length(diameter, "diameter", allow_zero=False)
-    g = _length(min_gap, "min_gap", allow_zero=True)
-    v = _fraction(vf, "hexagonal", d, g)
-    n = _count(n_per_side, "n_per_side")
-    _check_regular_count(2 * n * n, n, "hexagonal")
+    d, g, v, n = _regular_inputs("hexagonal", vf, diameter, n_per_side, min_gap)
     s = d * math.sqrt(math.pi / (2.0 * math.sqrt(3.0) * v))
     h = s * math.sqrt(3.0)
     base = np.array([[0.0, 0.0], [0.5 * s, 0.5 * h]])
@@ -516,9 +524,7 @@ def _arrangement(
     method: str,
     details: dict[str, Any],
 ) -> FibreArrangement:
-    box = np.array(cell)
-    c = np.mod(centres, box)
-    c = np.where(c >= box, 0.0, c)
+    c = packing.wrap(centres, np.array(cell))
     achieved = c.shape[0] * math.pi * d * d / (4.0 * cell[0] * cell[1])
     stats = nearest_neighbour_stats(c, cell, d)
     return FibreArrangement(

@@ -42,7 +42,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import DataFileError, InputError, MicromechError, UnitError
-from micromech.rve.tables import MIN_ROWS, Array, Table, read_table
+from micromech.rve.tables import MIN_ROWS, Array, Table, _first_nonfinite, read_table
 from micromech.units import parse_quantity, unit_factor
 
 __all__ = [
@@ -101,8 +101,8 @@ class Curve:
     def __post_init__(self) -> None:
         label = self.source or "curve"
         _check_direction(self.direction, label)
-        strain = _frozen_1d(self.strain, f"{label}: strain")
-        stress = _frozen_1d(self.stress, f"{label}: stress")
+        strain = _finite_1d(self.strain, f"{label}: strain", frozen=True)
+        stress = _finite_1d(self.stress, f"{label}: stress", frozen=True)
         if strain.shape != stress.shape:
             raise InputError(
                 f"{label}: strain and stress must have the same length, got {strain.size} and "
@@ -111,7 +111,7 @@ class Curve:
         lateral: dict[str, Array] = {}
         for axis, values in dict(self.lateral).items():
             _check_lateral_axis(self.direction, axis, label)
-            arr = _frozen_1d(values, f"{label}: lateral strain {axis}")
+            arr = _finite_1d(values, f"{label}: lateral strain {axis}", frozen=True)
             if arr.shape != strain.shape:
                 raise InputError(
                     f"{label}: lateral strain {axis} has {arr.size} points, the curve {strain.size}"
@@ -136,9 +136,14 @@ class Curve:
         return int(self.strain.size)
 
 
-def _frozen_1d(values: ArrayLike, label: str) -> Array:
+def _finite_1d(values: ArrayLike, label: str, *, frozen: bool = False) -> Array:
+    """Check a curve array: 1-D, at least MIN_ROWS points, all finite.
+
+    ``frozen`` returns a read-only copy (for :class:`Curve`); else the input itself where it is
+    already a float array.
+    """
     try:
-        arr = np.array(values, dtype=np.float64)
+        arr = np.array(values, dtype=np.float64, copy=True if frozen else None)
     except (TypeError, ValueError):
         raise InputError(f"{label}: expected an array of numbers") from None
     if arr.ndim != 1:
@@ -148,7 +153,8 @@ def _frozen_1d(values: ArrayLike, label: str) -> Array:
     i = _first_nonfinite(arr)
     if i is not None:
         raise InputError(f"{label}: point {i} is {float(arr[i])!r}; every value must be finite")
-    arr.flags.writeable = False
+    if frozen:
+        arr.flags.writeable = False
     return arr
 
 
@@ -311,12 +317,6 @@ def _case_geometry(direction: str, size: Array) -> tuple[float, float]:
     i, j = _AXIS[direction[0]], _AXIS[direction[1]]
     k = 3 - i - j
     return float(size[i] * size[k]), float(size[j])
-
-
-def _first_nonfinite(values: Array) -> int | None:
-    """Index of the first NaN or infinite value, None when all are finite."""
-    finite = np.isfinite(values)
-    return None if finite.all() else int(np.argmin(finite))
 
 
 def _check_finite(table: Table, values: Array, what: str) -> None:

@@ -188,9 +188,8 @@ class Table:
             what = "an empty cell" if not text.strip() else f"{text.strip()!r} is not a number"
             raise DataFileError(f"{self.path}, line {line}, {label}: {what}{hint}")
         values = self.data[:, j]
-        finite = np.isfinite(values)
-        if not finite.all():
-            r = int(np.argmin(finite))
+        r = _first_nonfinite(values)
+        if r is not None:
             raise DataFileError(
                 f"{self.path}, line {int(self.lines[r])}, {label}: value "
                 f"{float(values[r])!r} is not a finite number"
@@ -200,6 +199,12 @@ class Table:
 
 def _fold(name: str) -> str:
     return "".join(name.split()).lower()
+
+
+def _first_nonfinite(values: Array) -> int | None:
+    """Index of the first NaN or infinite value, None when all are finite."""
+    finite = np.isfinite(values)
+    return None if finite.all() else int(np.argmin(finite))
 
 
 def read_table(

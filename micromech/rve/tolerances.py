@@ -39,6 +39,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import InputError
 from micromech.results import ElasticConstants
+from micromech.rve.causes import STACK_PROPERTIES, UD_PROPERTIES
+from micromech.rve.ingest import DIRECTIONS
 
 __all__ = [
     "BOUND_SLACK",
@@ -108,16 +110,11 @@ MT_ERROR: dict[str, dict[str, tuple[tuple[float, float], ...]]] = {
 
 #: Names a property may have in a check: material axes (unidirectional, particulate: x = 1 =
 #: fibre, y = 2, z = 3) and stack axes (cross-ply and other stacks), plus strengths per direction.
-_ELASTIC_UD = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23", "nu21", "nu31",
-               "nu32")
-_ELASTIC_STACK = ("Ex", "Ey", "Ez", "Gxy", "Gxz", "Gyz", "nuxy", "nuxz", "nuyz", "nuyx", "nuzx",
-                  "nuzy")
-_DIRECTIONS = ("x", "y", "z", "xy", "yz", "xz")
 PROPERTY_NAMES: tuple[str, ...] = (
-    *_ELASTIC_UD,
-    *_ELASTIC_STACK,
-    *(f"yield_strength_{d}" for d in _DIRECTIONS),
-    *(f"ultimate_strength_{d}" for d in _DIRECTIONS),
+    *UD_PROPERTIES,
+    *STACK_PROPERTIES,
+    *(f"yield_strength_{d}" for d in DIRECTIONS),
+    *(f"ultimate_strength_{d}" for d in DIRECTIONS),
 )
 
 #: Unidirectional constants that share a band with a measured one (transverse isotropy).
@@ -274,9 +271,8 @@ def corner_plies(
     Each ply constant (E1, E2, nu12, G12, nu23) takes the low or the high end of its band
     (:func:`fibre_band`). The full-field results are stiffer transversely and have a lower nu23
     than Mori-Tanaka, so the stiff corner pairs high moduli with low Poisson ratios and the soft
-    corner the reverse; two mixed corners take all ends alike. Mori-Tanaka and, where given,
-    Halpin-Tsai plies are added. The band of a stack property is the range of the stacks of
-    these plies.
+    corner the reverse; two mixed corners take all ends alike. The band of a stack property is
+    the range of the stacks of these plies and of the Mori-Tanaka (and Halpin-Tsai) plies.
 
     Parameters
     ----------
@@ -292,7 +288,7 @@ def corner_plies(
     Returns
     -------
     list of ElasticConstants
-        Transversely isotropic plies.
+        The four corner plies (transversely isotropic): stiff, soft, and the two mixed ones.
     """
     ends: dict[str, tuple[Array, Array]] = {}
     for n in ("E1", "E2", "nu12", "G12", "nu23"):
@@ -305,10 +301,7 @@ def corner_plies(
             ends["E1"][moduli], ends["E2"][moduli], ends["nu12"][poisson], ends["G12"][moduli],
             nu23=ends["nu23"][poisson], model="band corner")
 
-    out = [ply(1, 0), ply(0, 1), ply(1, 1), ply(0, 0), mori_tanaka]
-    if halpin_tsai is not None:
-        out.append(halpin_tsai)
-    return out
+    return [ply(1, 0), ply(0, 1), ply(1, 1), ply(0, 0)]
 
 
 def particle_band(best: ArrayLike, inclusion: str = "sphere") -> Band:

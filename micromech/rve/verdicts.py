@@ -44,12 +44,12 @@ from micromech.errors import InputError
 from micromech.rve.causes import (
     Diagnosis,
     _finite,
-    _fmt,
     _pct,
     likely_causes,
     model_label,
     property_kind,
 )
+from micromech.rve.causes import format_property as _fmt
 from micromech.rve.tolerances import BOUND_SLACK, HS_SLACK, Band, band_about
 from micromech.safety import CAUTION
 
@@ -65,11 +65,10 @@ __all__ = [
 VERDICTS: tuple[str, ...] = ("consistent", "suspect", "violates_bounds")
 _RANK = {v: i for i, v in enumerate(VERDICTS)}
 
-#: The caution every table, report and JSON answer carries.
-
 #: Band used when a property has an estimate but no measured band and no user tolerance
 #: (common practice, no source).
 DEFAULT_TOLERANCE = 0.10
+
 
 def worst_verdict(verdicts: Iterable[str]) -> str:
     """Return the most severe of some verdicts (``consistent`` when there are none).
@@ -290,6 +289,8 @@ def grade_property(
         if h0 is not None and h1 is not None:
             hs = (min(h0, h1), max(h0, h1))
     model = model_label(best) if best else "the best estimate"
+    ref_txt = (f"{_pct(v, best_value)} from {model} = {_fmt(best_value, name)}"
+               if best_value else "")
 
     reasons: list[str] = []
     verdict = "consistent"
@@ -333,8 +334,6 @@ def grade_property(
         if band_t is not None and bnd is not None and not band_t[0] <= v <= band_t[1]:
             verdict = "suspect"
             where = "below" if v < band_t[0] else "above"
-            ref_txt = (f"{_pct(v, best_value)} from {model} = {_fmt(best_value, name)}"
-                       if best_value else "")
             reasons.append(
                 f"{name} = {_fmt(v, name)} is {where} the expected band "
                 f"{_fmt(band_t[0], name)} .. {_fmt(band_t[1], name)} ({ref_txt}; band: "
@@ -346,11 +345,10 @@ def grade_property(
             upper_bound=ub, context=context))
     else:
         if band_t is not None and bnd is not None:
-            ref_txt = (f", {_pct(v, best_value)} from {model} = {_fmt(best_value, name)}"
-                       if best_value else "")
             reasons.append(
                 f"{name} = {_fmt(v, name)} lies within the expected band "
-                f"{_fmt(band_t[0], name)} .. {_fmt(band_t[1], name)}{ref_txt} (band: "
+                f"{_fmt(band_t[0], name)} .. {_fmt(band_t[1], name)}"
+                f"{', ' + ref_txt if ref_txt else ''} (band: "
                 f"{bnd.basis})."
             )
         elif lb is not None or ub is not None:

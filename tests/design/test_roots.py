@@ -4,6 +4,7 @@ import numpy as np
 import pytest
 
 from micromech.design.roots import (
+    TOUCH,
     evaluate,
     find_crossings,
     intersect,
@@ -90,6 +91,17 @@ def test_intersection_of_interval_sets_keeps_points_and_overlaps():
     assert intersect(a, ()) == ()
     assert intersect_all([], 0.0, 0.9) == ((0.0, 0.9),)
     assert intersect_all([a, b, ((0.25, 0.55),)], 0.0, 1.0) == ((0.25, 0.3), (0.5, 0.55))
+
+
+def test_points_that_coincide_to_the_tolerance_intersect_in_one_point():
+    # two roots of one fraction refined separately differ in the last places (exact identity)
+    p, q = ((0.5, 0.5),), ((0.5 + 4e-16, 0.5 + 4e-16),)
+    (meet,) = intersect(p, q)
+    assert meet[0] == meet[1] == pytest.approx(0.5, abs=1e-15)
+    (end,) = intersect(((0.2, 0.5),), q)
+    assert end[0] == end[1] == pytest.approx(0.5, abs=1e-15)
+    assert len(intersect(((0.5 - 0.9 * TOUCH, 0.5 - 0.9 * TOUCH),), p)) == 1
+    assert intersect(((0.5 - 2.0 * TOUCH, 0.5 - 2.0 * TOUCH),), p) == ()
 
 
 def test_scalar_result_is_broadcast_over_the_fractions():

@@ -11,7 +11,7 @@ from micromech.design.forward import properties_at
 from micromech.design.sizing import as_constituents
 from micromech.errors import InputError
 from micromech.homogenize import FibrePhase
-from micromech.materials import Composite, Isotropic
+from micromech.materials import Composite, Isotropic, get_material
 
 LAYUP = "[0/90]s"
 
@@ -110,6 +110,22 @@ def test_window_of_a_minimum_and_a_maximum(glass_epoxy):
     assert w.high.volume_fraction == pytest.approx(700 / 1340, rel=1e-12)
     assert r.status == "met_by_all_models"
     assert r.bounds_window is not None
+
+
+@pytest.mark.parametrize("model", ["rule_of_mixtures", "halpin_tsai", "chamis", "cylinders",
+                                   "mori_tanaka"])
+def test_two_equality_targets_met_at_one_fraction_give_that_point_as_the_window(model):
+    # registry e-glass/epoxy, [0]4: Ex = E1 (exact identity), so E1 = Ex = E1(0.5) meet at Vf 0.5
+    comp = Composite(get_material("e-glass"), get_material("epoxy"), 0.5)
+    c = Constituents.from_composite(comp, layup="[0]4")
+    e1 = value(c, model, "E1", 0.5)
+    r = size_fraction(c, [SizingTarget("E1", e1), SizingTarget("Ex", e1)], models=[model],
+                      bounds=False)
+    assert r.status == "met_by_all_models"
+    (w,) = r.windows[model]
+    assert w.low.volume_fraction == pytest.approx(0.5, abs=1e-12)
+    assert w.high.volume_fraction == w.low.volume_fraction
+    assert r.common_window == r.windows[model]
 
 
 def test_case_file_with_a_layup_sizes_laminate_targets(case_file):

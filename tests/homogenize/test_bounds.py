@@ -72,6 +72,35 @@ def test_voigt_reuss_fraction_sum_checked(glass, epoxy):
         voigt_reuss(glass, epoxy, 0.7, void_fraction=0.5)
 
 
+def test_in_plane_random_voigt_reuss_match_the_6x6_bounds_of_the_averaged_fibre(carbon, epoxy):
+    # Hill (1952): Voigt = c <C_f> + (1 - c) C_m, Reuss = (c <S_f> + (1 - c) S_m)^-1, with < > the
+    # in-plane average; 16 rotations about axis 3 average a degree-4 polynomial exactly
+    R = tensors.rotation_about_axis(3, np.arange(16) * 22.5)
+    Cf = tensors.transversely_isotropic_stiffness(230e9, 15e9, 0.2, 15e9, 0.07)
+    Cm = tensors.isotropic_stiffness(3.5e9, 0.35)
+    C_avg = np.mean(tensors.rotate_stiffness(Cf, R), axis=0)
+    S_avg = np.mean(tensors.rotate_compliance(np.linalg.inv(Cf), R), axis=0)
+    V, Rb = voigt_reuss(carbon, epoxy, 0.4, orientation="random_in_plane")
+    tol = 1e-10 * float(np.max(Cf))
+    assert np.allclose(V.stiffness(), voigt_bound([C_avg, Cm], [0.4, 0.6]), atol=tol, rtol=0)
+    assert np.allclose(Rb.stiffness(), reuss_bound([np.linalg.inv(S_avg), Cm], [0.4, 0.6]),
+                       atol=tol, rtol=0)
+
+
+def test_random_voigt_of_isotropic_phases_is_the_aligned_voigt(glass, epoxy):
+    # an isotropic fibre looks the same in every direction: averaging changes nothing (exact)
+    aligned, _ = voigt_reuss(glass, epoxy, 0.3)
+    for orientation in ("random_in_plane", "random_3d"):
+        V, _ = voigt_reuss(glass, epoxy, 0.3, orientation=orientation)
+        assert np.allclose(V.stiffness(), aligned.stiffness(), rtol=1e-12)
+
+
+def test_voigt_reuss_rejects_an_unknown_orientation(glass, epoxy):
+    with pytest.raises(InputError, match="orientation = 'random': expected one of aligned, "
+                       "random_in_plane, random_3d"):
+        voigt_reuss(glass, epoxy, 0.3, orientation="random")
+
+
 def test_hashin_shtrikman_of_equal_phases_is_the_phase():
     b = hashin_shtrikman_isotropic([5e9, 5e9, 5e9], [2e9, 2e9, 2e9], [0.2, 0.3, 0.5])
     assert all(np.isclose(v, 5e9 if k[0] == "K" else 2e9, rtol=1e-12) for k, v in b.items())

@@ -199,6 +199,22 @@ def test_plot_of_a_random_mat_draws_the_normal_modulus(tmp_path):
     assert out.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
 
 
+def test_plot_of_a_random_mat_labels_the_normal_constants_with_units(tmp_path, monkeypatch):
+    import matplotlib.figure
+
+    labels: list[str] = []
+    save = matplotlib.figure.Figure.savefig
+
+    def spy(fig, *args, **kwargs):
+        labels.extend(ax.get_ylabel() for ax in fig.axes)
+        return save(fig, *args, **kwargs)
+
+    monkeypatch.setattr(matplotlib.figure.Figure, "savefig", spy)
+    mat = Composite(GLASS, EPOXY, 0.3, orientation="random_in_plane")
+    plot_estimates(estimate(mat), tmp_path / "mat.png", points=5)
+    assert {"E3 [GPa]", "G13 [GPa]", "alpha1 [1e-6/K]"} <= set(labels)
+
+
 def test_cli_estimates_the_random_mat_example():
     res = CliRunner().invoke(cli, ["estimate", str(RANDOM_MAT), "--json"])
     assert res.exit_code == 0, res.output

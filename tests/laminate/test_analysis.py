@@ -104,7 +104,7 @@ def test_case_without_ply_constants_takes_the_named_estimate(monkeypatch):
                                                  model="halpin_tsai", source="Halpin (1969)")
     seen = []
 
-    def fake_estimate(composite):
+    def fake_estimate(composite, **options):
         seen.append(composite.volume_fraction)
         return SimpleNamespace(models={"halpin_tsai": ec})
 
@@ -115,7 +115,7 @@ def test_case_without_ply_constants_takes_the_named_estimate(monkeypatch):
 
 
 def test_estimate_that_does_not_give_the_named_model_is_refused(monkeypatch):
-    monkeypatch.setattr(micromech.homogenize, "estimate", lambda c: {"voigt": None},
+    monkeypatch.setattr(micromech.homogenize, "estimate", lambda c, **options: {"voigt": None},
                         raising=False)
     with pytest.raises(CaseFileError, match="model = 'halpin_tsai' does not apply.*voigt"):
         ply_material_from_case(_case(**COMPOSITE_CASE))

@@ -260,6 +260,18 @@ def test_bad_loads_are_refused():
     assert dT == -100.0
 
 
+def test_delta_t_argument_overrides_the_one_in_the_loads():
+    vec, dT = load_vector({"Nx": 1.0, "delta_T": -100.0}, delta_T=25.0)
+    assert vec.tolist() == [1.0, 0.0, 0.0, 0.0, 0.0, 0.0] and dT == 25.0
+    assert load_vector([0.0] * 6, 7)[1] == 7.0 and load_vector(None)[1] == 0.0
+
+
+def test_flexural_constants_refuse_an_unknown_bending_option(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]", graphite_epoxy, 1e-3)
+    with pytest.raises(InputError, match="bending: expected 'free' or 'restrained'"):
+        lam.flexural_constants("clamped")
+
+
 def test_unknown_bending_option_is_refused(graphite_epoxy):
     lam = Laminate.from_code("[0/90]", graphite_epoxy, 1e-3)
     with pytest.raises(InputError, match="bending: expected 'free' or 'restrained'"):

@@ -3,14 +3,20 @@
 from __future__ import annotations
 
 import json
+from dataclasses import replace
 
 import numpy as np
 import pytest
 from click.testing import CliRunner
 
 from micromech.cli import cli
-from micromech.laminate import Laminate, analyse_laminate
-from micromech.report.laminate import CAUTION, laminate_json, laminate_table
+from micromech.laminate import Laminate, analyse_laminate, failure_envelope
+from micromech.report.laminate import (
+    CAUTION,
+    envelope_intercepts_table,
+    laminate_json,
+    laminate_table,
+)
 
 CASE = """
 name = "invented example: carbon/epoxy quasi-isotropic panel"
@@ -167,3 +173,17 @@ def test_table_says_when_the_residual_stress_alone_fails_or_nothing_fails(graphi
     from micromech.report.laminate import _at_failure
 
     assert _at_failure(np.zeros(6), float("inf")) == "never along this load direction"
+
+
+def test_intercept_table_shows_display_units_and_never(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    env = failure_envelope(lam, "Nx,Mxy", "max_stress", n_points=8)
+    head, cols, row = envelope_intercepts_table([env]).splitlines()
+    assert head.startswith("First-ply failure envelope in Nx (N/mm), Mxy (N*m/m)")
+    assert cols.split() == ["criterion", "+Nx", "-Nx", "+Mxy", "-Mxy"]
+    cells = row.split()
+    assert cells[0] == "max_stress"
+    assert float(cells[1]) == pytest.approx(env.intercepts["+Nx"] * 1e-3, rel=1e-3)  # N/m -> N/mm
+    assert float(cells[4]) == pytest.approx(env.intercepts["-Mxy"], rel=1e-3)  # N stays N*m/m
+    never = replace(env, intercepts={**env.intercepts, "+Nx": float("inf")})
+    assert envelope_intercepts_table([never]).splitlines()[2].split()[1] == "never"

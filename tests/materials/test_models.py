@@ -326,6 +326,12 @@ def test_infinite_size_is_rejected_naming_the_field(field):
         Isotropic(E=3e9, nu=0.3, **{field: float("inf")})
 
 
+@pytest.mark.parametrize("field", ["density", "fibre_diameter"])
+def test_nan_size_is_rejected_as_not_finite(field):
+    with pytest.raises(InvalidMaterialError, match=rf"{field} = nan must be finite"):
+        Isotropic(E=3e9, nu=0.3, **{field: float("nan")})
+
+
 def test_materials_module_examples_run():
     import doctest
 

@@ -29,10 +29,14 @@ def ud_case(C_gpa, vf=0.55, arrangement="random", **extra):
     return case_from_dict(data)
 
 
-def mt_stiffness_gpa(vf=0.55, arrangement="random"):
+def mt_constants(vf=0.55, arrangement="random"):
     case = case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": vf,
                                                          "arrangement": arrangement}})
-    return estimate(case.composite, strengths=False)["mori_tanaka"].stiffness() / 1e9
+    return estimate(case.composite, strengths=False)["mori_tanaka"]
+
+
+def mt_stiffness_gpa(vf=0.55, arrangement="random"):
+    return mt_constants(vf, arrangement).stiffness() / 1e9
 
 
 # --- unidirectional, from a full stiffness ---------------------------------------------------
@@ -263,14 +267,19 @@ def test_particulate_spheres_at_mori_tanaka_are_consistent_with_hs_band():
     assert "not measured" in e1.reasons[0]  # flat band for particles
 
 
-def test_averaged_load_cases_give_the_full_stiffness():
+def averaged_mt_case():
+    """The Mori-Tanaka stiffness (Pa) and a case of its six unit-strain load cases (MPa)."""
     C = mt_stiffness_gpa() * 1e9
-    eps = 1e-3 * np.eye(6)
     cases = [{"stress": (C @ e / 1e6).tolist(), "strain": e.tolist(), "stress_unit": "MPa"}
-             for e in eps]
+             for e in 1e-3 * np.eye(6)]
     data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
             "rve": {"architecture": "unidirectional", "load_case": cases}}
-    r = check_case(case_from_dict(data))
+    return C, case_from_dict(data)
+
+
+def test_averaged_load_cases_give_the_full_stiffness():
+    C, case = averaged_mt_case()
+    r = check_case(case)
     assert r.worst_verdict == "consistent"
     assert r.properties["G23"].value == pytest.approx(C[3, 3], rel=1e-9)
     assert r.curves == {}
@@ -285,8 +294,7 @@ def test_check_table_limits_properties_and_models():
 
 def test_percent_strains_read_as_plain_numbers_are_diagnosed(tmp_path):
     # invented history: E1 of the Mori-Tanaka estimate, strain written in percent
-    e1 = float(estimate(case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.55}})
-                        .composite, strengths=False)["mori_tanaka"].E1)
+    e1 = float(mt_constants().E1)
     strain = np.linspace(0.0, 0.01, 60)
     rows = "\n".join(f"{100 * e:.8g},{e1 * e / 1e6:.8g}" for e in strain)
     (tmp_path / "ud_x.csv").write_text("# invented example\nstrain_pct,stress_mpa\n" + rows)
@@ -305,8 +313,7 @@ def test_percent_strains_read_as_plain_numbers_are_diagnosed(tmp_path):
 
 
 def test_skip_rows_of_a_load_case_are_honoured(tmp_path):
-    e1 = float(estimate(case_from_dict({**GLASS_EPOXY, "composite": {"volume_fraction": 0.55}})
-                        .composite, strengths=False)["mori_tanaka"].E1)
+    e1 = float(mt_constants().E1)
     strain = np.linspace(0.0, 0.01, 40)
     rows = "\n".join(f"{e:.8g},{e1 * e / 1e6:.8g}" for e in strain)
     (tmp_path / "h.csv").write_text("solver preamble line\nmore preamble\nstrain,stress\n" + rows)
@@ -378,7 +385,7 @@ UD_BASE = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55, "arrangement": 
 
 
 def ud_mori_tanaka():
-    return estimate(case_from_dict(UD_BASE).composite, strengths=False)["mori_tanaka"]
+    return mt_constants(arrangement="hexagonal")  # the composite of UD_BASE
 
 
 def ud_moduli(mt, **scale):
@@ -463,13 +470,8 @@ def test_particulate_15_percent_low_is_suspect_above_reuss(tmp_path):
 
 
 def test_averaged_load_cases_grade_all_nine_constants_and_report_the_stiffness():
-    C = mt_stiffness_gpa() * 1e9
-    eps = 1e-3 * np.eye(6)
-    cases = [{"stress": (C @ e / 1e6).tolist(), "strain": e.tolist(), "stress_unit": "MPa"}
-             for e in eps]
-    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
-            "rve": {"architecture": "unidirectional", "load_case": cases}}
-    r = check_case(case_from_dict(data))
+    C, case = averaged_mt_case()
+    r = check_case(case)
     nine = ("E1", "E2", "E3", "G12", "G13", "G23", "nu12", "nu13", "nu23")
     assert set(nine) <= set(r.properties)
     assert all(r.properties[n].verdict == "consistent" for n in nine)

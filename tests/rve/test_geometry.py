@@ -20,6 +20,7 @@ from micromech.rve.geometry import (
     HEXAGONAL_LIMIT,
     SQUARE_LIMIT,
     FibreArrangement,
+    arrangement_text,
     hexagonal_cell,
     packing_limit,
     plot_arrangement,
@@ -438,6 +439,15 @@ def case_file(tmp_path: Path) -> Path:
     p = tmp_path / "case.toml"
     p.write_text(CASE_TOML)
     return p
+
+
+def test_summary_text_lists_the_cell_and_the_files_and_ends_with_the_caution() -> None:
+    a = square_cell(0.5, D, n_per_side=2)
+    text = arrangement_text(a, "RVE cell", written="c.csv", plot="c.png").splitlines()
+    assert text[:3] == ["RVE cell", "--------", "  packing               square"]
+    assert "  fibres                4 (+" in text[3] and "achieved 0.5000 (asked 0.5000)" in text[5]
+    assert text[-4:] == ["  written               c.csv", "  plot                  c.png", "",
+                         CAUTION]
 
 
 def test_cli_random_cell_from_options_prints_table_and_writes_csv(tmp_path: Path) -> None:

@@ -4,9 +4,11 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from micromech.errors import InputError
+from micromech.results import ElasticConstants
 from micromech.rve.tolerances import (
     MARGINS,
     band_about,
+    corner_plies,
     fibre_band,
     parse_tolerances,
     particle_band,
@@ -158,3 +160,17 @@ def test_error_table_ranges_are_ordered():
         for name, rows in table.items():
             assert len(rows) == 4, (arr, name)
             assert all(lo <= hi for lo, hi in rows), (arr, name)
+
+
+def test_corner_plies_take_the_ends_of_each_band():
+    # invented Mori-Tanaka ply of a glass/epoxy-like UD at Vf = 0.55 (not from any source)
+    mt = ElasticConstants.transversely_isotropic(40e9, 10e9, 0.27, 4e9, nu23=0.4)
+    stiff, soft, high, low = corner_plies(mt, 0.55, "random")
+    for name in ("E1", "E2", "G12", "nu12", "nu23"):
+        b = fibre_band(name, mt.get(name), 0.55, "random")
+        # the stiff corner pairs high moduli with low Poisson ratios, the soft one the reverse
+        stiff_end, soft_end = (b.low, b.high) if name.startswith("nu") else (b.high, b.low)
+        assert float(stiff.get(name)) == pytest.approx(float(stiff_end), rel=1e-12)
+        assert float(soft.get(name)) == pytest.approx(float(soft_end), rel=1e-12)
+        assert float(high.get(name)) == pytest.approx(float(b.high), rel=1e-12)
+        assert float(low.get(name)) == pytest.approx(float(b.low), rel=1e-12)

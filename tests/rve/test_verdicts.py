@@ -23,6 +23,16 @@ def grade_e2(value, **kw):
     return grade_property("E2", value, **args)
 
 
+def test_band_reasons_give_the_distance_to_the_best_estimate():
+    band = (9e9, 11e9)  # hand-made band around an invented Mori-Tanaka E2 of 10 GPa
+    out = grade_property("E2", 13e9, estimates={"mori_tanaka": 10e9}, band=band)
+    assert "band 9 GPa .. 11 GPa (+30.0 % from Mori-Tanaka = 10 GPa; band:" in out.reasons[0]
+    inside = grade_property("E2", 10.5e9, estimates={"mori_tanaka": 10e9}, band=band)
+    assert "band 9 GPa .. 11 GPa, +5.0 % from Mori-Tanaka = 10 GPa (band:" in inside.reasons[0]
+    alone = grade_property("E2", 10.5e9, band=band, best=None)
+    assert "band 9 GPa .. 11 GPa (band: the given band)." in alone.reasons[0]
+
+
 def test_value_times_1000_violates_bounds_with_unit_slip_first():
     r = grade_e2(11.5e9 * 1000)
     assert r.verdict == "violates_bounds"
