@@ -47,17 +47,9 @@ class _Group(click.Group):
 
 def emit_json(obj: Any) -> None:
     """Print one JSON object (SI units) to standard output."""
-    click.echo(json.dumps(obj, indent=2, allow_nan=False, default=_json_default))
+    from micromech.report.text import json_default
 
-
-def _json_default(o: Any) -> Any:
-    import numpy as np
-
-    if isinstance(o, np.ndarray):
-        return o.tolist()
-    if isinstance(o, np.generic):
-        return o.item()
-    raise TypeError(f"not JSON serialisable: {type(o).__name__}")
+    click.echo(json.dumps(obj, indent=2, allow_nan=False, default=json_default))
 
 
 @click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})

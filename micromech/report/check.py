@@ -18,13 +18,14 @@ from __future__ import annotations
 
 import math
 import textwrap
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
 
 from micromech.errors import InputError
 from micromech.report.html import escape, html_document, html_table, image_tag
 from micromech.report.markdown import markdown_table, write_atomic
+from micromech.report.text import text_table
 from micromech.rve.causes import format_property, model_label, property_kind
 from micromech.units import format_si
 
@@ -124,16 +125,6 @@ def _stiffness_rows(result: Any) -> tuple[list[str], list[list[str]]]:
     return headers, rows
 
 
-def _text_table(headers: Sequence[str], rows: Sequence[Sequence[str]]) -> str:
-    widths = [max(len(str(h)), *(len(str(r[i])) for r in rows)) if rows else len(str(h))
-              for i, h in enumerate(headers)]
-    def line(cells: Sequence[str]) -> str:
-        return "  ".join(str(c).ljust(w) for c, w in zip(cells, widths, strict=True)).rstrip()
-    out = [line(headers), "  ".join("-" * w for w in widths)]
-    out += [line(r) for r in rows]
-    return "\n".join(out)
-
-
 def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 100) -> str:
     """Format the terminal report: verdicts, reasons of the problems, curves, caution.
 
@@ -158,7 +149,7 @@ def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 10
            f"architecture {result.architecture}, fibre fraction {result.volume_fraction:g} "
            f"({result.arrangement} arrangement); worst verdict: {result.worst_verdict}", ""]
     headers, rows = verdict_rows(result)
-    out.append(_text_table(headers, rows))
+    out.append(text_table(headers, rows))
     shown = [(n, p) for n, p in result.properties.items()
              if all_reasons or p.verdict != "consistent"]
     if shown:
@@ -170,10 +161,10 @@ def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 10
                                          subsequent_indent="    "))
     if result.curves:
         out += ["", "Load cases:"]
-        out.append(_text_table(*_curve_rows(result)))
+        out.append(text_table(*_curve_rows(result)))
     if result.stiffness is not None:
         out += ["", textwrap.fill(_stiffness_summary(result), width)]
-        out.append(_text_table(*_stiffness_rows(result)))
+        out.append(text_table(*_stiffness_rows(result)))
     if result.notes:
         out += ["", "Notes:"]
         out += [textwrap.fill(n, width, initial_indent="  - ", subsequent_indent="    ")

@@ -98,6 +98,7 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     from micromech.report.html import escape, html_document
     from micromech.report.laminate import laminate_json, laminate_table
     from micromech.report.markdown import write_atomic
+    from micromech.report.text import json_default
 
     demo = demo_directory()
     out = Path(out_dir)
@@ -164,21 +165,9 @@ def run_demo(out_dir: str | Path) -> DemoRun:
         "caution": CAUTION,
     }
     files["json"] = write_atomic(
-        out / "summary.json", json.dumps(summary, indent=2, default=_json_default) + "\n")
+        out / "summary.json", json.dumps(summary, indent=2, default=json_default) + "\n")
     short = [text.split("\nReasons:", 1)[0].rstrip() if key.startswith("check") else text
              for key, text in sections.items()]
     short.append(f"(the reasons behind every verdict are in {out / 'check'})")
     return DemoRun(directory=out, files=files, sections=sections,
                    summary="\n\n".join(short), verdicts=verdicts)
-
-
-def _json_default(o: Any) -> Any:
-    import numpy as np
-
-    if isinstance(o, np.ndarray):
-        return o.tolist()
-    if isinstance(o, np.generic):
-        return o.item()
-    if isinstance(o, Path):
-        return str(o)
-    raise TypeError(f"not JSON serialisable: {type(o).__name__}")

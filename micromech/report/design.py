@@ -17,6 +17,7 @@ from micromech.design.inverse import FractionInterval, SizingResult, TargetSizin
 from micromech.design.sweeps import Sweep
 from micromech.design.targets import format_value, property_unit
 from micromech.design.uncertainty import MonteCarloResult
+from micromech.report.text import text_table
 from micromech.safety import CAUTION
 
 __all__ = [
@@ -37,15 +38,6 @@ _SHORT = {
 _STYLES = ("-", "--", ":", "-.")
 _COLOURS = {"rule_of_mixtures": "tab:blue", "halpin_tsai": "tab:orange", "chamis": "tab:green",
             "cylinders": "tab:red", "mori_tanaka": "tab:purple"}
-
-
-def _table(headers: Sequence[str], rows: Sequence[Sequence[str]]) -> list[str]:
-    widths = [max(len(str(h)), *(len(str(r[i])) for r in rows)) if rows else len(str(h))
-              for i, h in enumerate(headers)]
-    line = "  ".join(str(h).ljust(w) for h, w in zip(headers, widths, strict=True))
-    out = [line, "  ".join("-" * w for w in widths)]
-    out += ["  ".join(str(c).ljust(w) for c, w in zip(r, widths, strict=True)) for r in rows]
-    return out
 
 
 def _num(x: float | None, digits: int = 4) -> str:
@@ -103,14 +95,15 @@ def sizing_table(result: SizingResult, *, title: str = "") -> str:
     lines.append(f"fibre fraction range searched: 0 to {result.upper:.4g} (packing limit)")
     for t in result.targets:
         lines += ["", f"target {t.target.describe()}: {t.status.replace('_', ' ')}"]
-        lines += _table(["model", "Vf", "weight fraction", "density", "status"], _target_rows(t))
+        lines.append(text_table(["model", "Vf", "weight fraction", "density", "status"],
+                                _target_rows(t)))
         lines.append(t.message)
     lines += ["", "window meeting all targets"]
     rows = [[_SHORT.get(k, k), _window(v)] for k, v in result.windows.items()]
     rows.append(["every model", _window(result.common_window)])
     if result.bounds_window is not None:
         rows.append(["bounds admit", _window(result.bounds_window)])
-    lines += _table(["model", "fractions"], rows)
+    lines.append(text_table(["model", "fractions"], rows))
     lines += [result.message, "", f"Caution: {CAUTION}"]
     return "\n".join(lines)
 
@@ -143,7 +136,7 @@ def monte_carlo_table(result: MonteCarloResult, *, title: str = "") -> str:
     lines.append(f"Monte Carlo: {result.n} samples of {result.model or 'the model'} (seed "
                  f"{result.seed}); scatter in {inputs or 'nothing'}; {result.rejected} rows "
                  "redrawn outside the physical range")
-    lines += _table(headers, rows)
+    lines.append(text_table(headers, rows))
     lines += ["", f"Caution: {CAUTION}"]
     return "\n".join(lines)
 
