@@ -365,10 +365,14 @@ def _material(ctx: _Ctx, value: Any, where: str) -> Material:
             raise RegistryError(f"{label} {exc}") from None
     table = dict(_table(ctx, value, where))
     _check_keys(ctx, table, _MATERIAL_KEYS, where)
+    return _resolve(ctx, table, label, name=where.strip("[]"))
+
+
+def _resolve(ctx: _Ctx, table: dict[str, Any], label: str, **defaults: str) -> Material:
+    """Build a registry entry (``use = KEY`` plus overrides) or inline constants (``defaults``)."""
     if "use" in table:
         return ctx.registry.resolve(table, label=label)
-    table.setdefault("name", where.strip("[]"))
-    return material_from_dict(table, label=label)
+    return material_from_dict({**defaults, **table}, label=label)
 
 
 def _composite(
@@ -430,13 +434,7 @@ def _ply(ctx: _Ctx, value: Any) -> tuple[Material | None, Strengths | None, str]
         nested = table.get("strengths") or {}
         table["strengths"] = {**(nested if isinstance(nested, dict) else {}),
                               **strengths.as_dict()}
-    label = f"{ctx.label}: {where}"
-    if "use" in table:
-        ply = ctx.registry.resolve(table, label=label)
-    else:
-        table.setdefault("name", "ply")
-        table.setdefault("role", "ply")
-        ply = material_from_dict(table, label=label)
+    ply = _resolve(ctx, table, f"{ctx.label}: {where}", name="ply", role="ply")
     return ply, ply.strengths, model
 
 

@@ -70,17 +70,16 @@ def data_directory(name: str, marker: str = "*.toml") -> Path:
 def read_toml(
     path: str | Path, error: type[MicromechError], label: str | Path | None = None
 ) -> dict[str, Any]:
-    """Parse a TOML file, raising the caller's error class for a file that cannot be read.
+    """Parse a TOML file (a case or registry file).
 
     Parameters
     ----------
     path : str or Path
         The file.
     error : type of MicromechError
-        Raised (e.g. ``CaseFileError``, ``RegistryError``) for malformed TOML or text that is not
-        UTF-8.
+        The class to raise (``CaseFileError``, ``RegistryError``).
     label : str or Path, optional
-        How the message names the file (default: ``path``).
+        How messages name the file (default: ``path``).
 
     Returns
     -------

@@ -44,24 +44,9 @@ def fraction(vf: ArrayLike, field: str = "vf") -> Array:
 
 
 def void_fractions(vf: ArrayLike, void_fraction: ArrayLike) -> tuple[Array, Array, bool]:
-    """Return the fibre and void fractions, checked, and whether there are any voids.
+    """Return the fibre and void fractions and whether there are voids.
 
-    Parameters
-    ----------
-    vf, void_fraction : array_like, shape (...)
-        Fibre and void volume fractions, each in [0, 1]; the matrix takes the rest.
-
-    Returns
-    -------
-    vf, void_fraction : ndarray, shape (...)
-        The fractions.
-    voids : bool
-        Whether any void fraction is positive.
-
-    Raises
-    ------
-    FractionError
-        A fraction outside [0, 1], or vf + void_fraction > 1.
+    FractionError unless each is in [0, 1] and vf + void_fraction <= 1 (the matrix takes the rest).
     """
     c = fraction(vf)
     cv = fraction(void_fraction, "void_fraction")
@@ -232,27 +217,10 @@ def normal_result(
     source: str,
     alpha: tuple[Array, Array] | None = None,
 ) -> ElasticConstants:
-    """Constants, in the composite's axes, of a compliance transversely isotropic about axis 3.
+    """Turn a compliance about the plate normal (axis 3) into constants in the composite's axes.
 
-    Randomly oriented fibres: the Walpole components are taken about the plate normal (axis 3,
-    ``random_in_plane``); for ``random_3d`` the compliance is isotropic, and so are the constants
-    (``extra`` has K and G).
-
-    Parameters
-    ----------
-    S : walpole.TI
-        Compliance about the normal, 1/Pa.
-    orientation : {"random_in_plane", "random_3d"}
-        Fibre orientation.
-    model, source : str
-        Model key and published source.
-    alpha : tuple of ndarray, optional
-        ``(in-plane, normal)`` CTEs, 1/K.
-
-    Returns
-    -------
-    ElasticConstants
-        E1 = E2 in the plane, E3 along the normal (``random_3d``: all equal).
+    ``random_in_plane``: E1 = E2 in the plane, E3 along the normal; ``random_3d``: S is isotropic
+    and so are the constants (``extra`` has K and G). ``alpha`` is (in-plane, normal), 1/K.
     """
     e = W.engineering_from_compliance(S)  # its axis 1 is the plate normal
     E_in, nu_in, G_in = e["E2"], e["nu23"], e["G23"]
@@ -269,21 +237,9 @@ def normal_result(
 def isotropic_result(
     K: Array, G: Array, *, model: str, source: str, alpha: Array | None = None
 ) -> ElasticConstants:
-    """Isotropic constants from bulk and shear moduli (``extra`` holds K and G).
+    """Turn bulk and shear moduli into isotropic constants (``extra`` holds K and G).
 
-    Parameters
-    ----------
-    K, G : ndarray, shape (...)
-        Bulk and shear moduli, Pa.
-    model, source : str
-        Model key and published source.
-    alpha : ndarray, optional
-        CTE, 1/K.
-
-    Returns
-    -------
-    ElasticConstants
-        ``E = 9 K G / (3 K + G)``, ``nu = (3 K - 2 G) / (2 (3 K + G))`` on every axis.
+    ``E = 9 K G / (3 K + G)`` and ``nu = (3 K - 2 G) / (2 (3 K + G))`` on every axis.
     """
     E = 9.0 * K * G / (3.0 * K + G)
     nu = (3.0 * K - 2.0 * G) / (2.0 * (3.0 * K + G))

@@ -255,21 +255,21 @@ def voigt_reuss(
     c0 = 1.0 - c - cv
     Cf, Cm = cm.fibre_tensor(f), cm.matrix_tensor(m)
     CV = W.add(W.scale(average(Cf, orientation), c), W.scale(Cm, c0))
-    voigt = _oriented_result(CV, None, orientation, "voigt", VOIGT_SOURCE, "stiffness")
+    voigt = _oriented_result(W.inv(CV), orientation, "voigt", VOIGT_SOURCE, "stiffness", C=CV)
     if voids:
         return voigt, None
     SR = W.add(W.scale(average(W.inv(Cf), orientation), c), W.scale(W.inv(Cm), c0))
-    return voigt, _oriented_result(None, SR, orientation, "reuss", REUSS_SOURCE, "compliance")
+    return voigt, _oriented_result(SR, orientation, "reuss", REUSS_SOURCE, "compliance")
 
 
 def _oriented_result(
-    C: W.TI | None, S: W.TI | None, orientation: str, model: str, source: str, averaged: str
+    S: W.TI, orientation: str, model: str, source: str, averaged: str, C: W.TI | None = None
 ) -> ElasticConstants:
-    """Constants of a bound given by its stiffness C or its compliance S, in composite axes."""
+    """Constants of a bound with compliance S (stiffness C when known), in the composite's axes."""
     if orientation == "aligned":
         return cm.ti_result(W.inv(S) if C is None else C, model=model, source=source, S=S)
     source += AVERAGED_SOURCE.format(what=averaged, orientation=orientation)
-    return cm.normal_result(W.inv(C) if S is None else S, orientation, model=model, source=source)
+    return cm.normal_result(S, orientation, model=model, source=source)
 
 
 def hashin_shtrikman_isotropic(
