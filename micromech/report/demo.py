@@ -2,7 +2,7 @@
 
 ``run_demo(out_dir)`` runs the whole job on ``data/demo`` and writes one report folder:
 
-- ``report.html`` (self-contained) and ``report.md``: every step's table, with plots;
+- ``report.html`` (self-contained: plots embedded) and ``report.md``: every step's table;
 - ``estimate.png``, ``sizing.png``: properties against fibre fraction with the bound band;
 - ``envelope.png``: the laminate's first-ply failure envelope in Nx-Ny for four criteria;
 - ``check/crossply/`` and ``check/crossply_bad/``: the RVE check reports of the good case and of
@@ -95,7 +95,7 @@ def run_demo(out_dir: str | Path) -> DemoRun:
     from micromech.report.check import demo_directory, format_check_text, run_demo_check
     from micromech.report.design import CAUTION, plot_sizing, sizing_table
     from micromech.report.estimate import estimate_table, plot_estimates
-    from micromech.report.html import escape, html_document
+    from micromech.report.html import escape, html_document, image_tag
     from micromech.report.laminate import laminate_json, laminate_table
     from micromech.report.markdown import write_atomic
     from micromech.report.text import json_default
@@ -148,7 +148,7 @@ def run_demo(out_dir: str | Path) -> DemoRun:
         body.append(f"<h2>{escape(titles[key])}</h2>")
         if key in images:
             md += [f"![{key}]({images[key]})", ""]
-            body.append(f'<p><img src="{images[key]}" alt="{key}" style="max-width:100%"></p>')
+            body.append(image_tag((out / images[key]).read_bytes(), alt=titles[key]))
         if key in links:
             md += [f"Full report: [{links[key]}]({links[key]})", ""]
             body.append(f'<p>Full report: <a href="{links[key]}">{escape(links[key])}</a></p>')

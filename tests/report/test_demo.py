@@ -23,6 +23,7 @@ def test_demo_writes_a_report_and_shows_the_verdicts(tmp_path):
         assert (out / name).is_file(), name
     html = (out / "report.html").read_text(encoding="utf-8")
     assert "not design allowables" in html and "invented" in html
+    assert 'src="data:image/png;base64,' in html and "http" not in html  # self-contained
     summary = json.loads((out / "summary.json").read_text(encoding="utf-8"))
     assert set(summary) >= {"estimate", "size", "laminate", "check", "caution"}
     assert summary["check"]["crossply"]["worst_verdict"] == "consistent"
