@@ -31,7 +31,8 @@ td.num { text-align: right; font-variant-numeric: tabular-nums; }
 .consistent { color: #1a7f37; font-weight: bold; }
 .suspect { color: #9a6700; font-weight: bold; }
 .violates_bounds { color: #cf222e; font-weight: bold; }
-figure { display: inline-block; margin: 0.5em; }
+figure { display: inline-block; margin: 0.5em; max-width: 100%; }
+img { max-width: 100%; height: auto; }
 figcaption { font-size: 0.9em; color: #555; }
 """
 
