@@ -15,7 +15,6 @@ name and the table, e.g. ``case.toml: [composite] unknown key 'volume_fracton'; 
 
 from __future__ import annotations
 
-import difflib
 import math
 from collections.abc import Iterable, Iterator
 from contextlib import contextmanager
@@ -26,7 +25,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from micromech.errors import CaseFileError, MicromechError, RegistryError
+from micromech.errors import CaseFileError, MicromechError, RegistryError, suggest
 from micromech.homogenize.estimate import MODEL_KEYS
 from micromech.materials.composite import (
     ARRANGEMENTS,
@@ -297,10 +296,7 @@ def _check_keys(ctx: _Ctx, table: dict[str, Any], allowed: Iterable[str], where:
     allowed = tuple(allowed)
     for key in table:
         if key not in allowed:
-            near = difflib.get_close_matches(key, allowed, n=1, cutoff=0.6)
-            if not near:
-                near = [a for a in allowed if a.lower() == key.lower()]
-            hint = f"; did you mean {near[0]!r}?" if near else f"; valid keys: {', '.join(allowed)}"
+            hint = suggest(key, allowed) or f"; valid keys: {', '.join(allowed)}"
             raise ctx.error(where, f"unknown key {key!r}{hint}")
 
 
@@ -319,9 +315,8 @@ def _text(ctx: _Ctx, value: Any, where: str, key: str) -> str:
 def _choice(ctx: _Ctx, value: Any, options: Iterable[str], where: str, key: str) -> str:
     options = tuple(options)
     if value not in options:
-        near = difflib.get_close_matches(str(value), options, n=1, cutoff=0.5)
-        hint = f"; did you mean {near[0]!r}?" if near else ""
-        raise ctx.error(where, f"{key} = {value!r} is not one of {', '.join(options)}{hint}")
+        raise ctx.error(where, f"{key} = {value!r} is not one of {', '.join(options)}"
+                               f"{suggest(value, options)}")
     return str(value)
 
 
@@ -423,17 +418,19 @@ def _ply(ctx: _Ctx, value: Any) -> tuple[Material | None, Strengths | None, str]
     _check_keys(ctx, table, _MATERIAL_KEYS + STRENGTH_KEYS + ("model",), where)
     model = _choice(ctx, table.pop("model", "mori_tanaka"), ESTIMATE_MODELS, where, "model")
     flat = {k: table.pop(k) for k in STRENGTH_KEYS if k in table}
+    nested = table.get("strengths")
+    if nested is not None and not isinstance(nested, dict):
+        raise ctx.error(where, f"strengths must be a table such as {{Xt = \"1900 MPa\"}}, got "
+                               f"{nested!r}")
     strengths: Strengths | None = None
-    if flat:
+    if flat or nested:
         with ctx.prefix(where):
-            strengths = Strengths(**flat)
-    constants = [k for k in table if k not in ("name", "source", "notes", "role")]
+            strengths = Strengths(**{**(nested or {}), **flat})  # flat keys win
+    constants = [k for k in table if k not in ("name", "source", "notes", "role", "strengths")]
     if not constants:
         return None, strengths, model
     if strengths is not None:
-        nested = table.get("strengths") or {}
-        table["strengths"] = {**(nested if isinstance(nested, dict) else {}),
-                              **strengths.as_dict()}
+        table["strengths"] = strengths.as_dict()
     ply = _resolve(ctx, table, f"{ctx.label}: {where}", name="ply", role="ply")
     return ply, ply.strengths, model
 
@@ -574,11 +571,7 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
     if isinstance(skip, bool) or not isinstance(skip, int) or skip < 0:
         raise ctx.error(where, f"skip_rows = {skip!r} must be a whole number >= 0")
     rng = _strain_range(ctx, t.get("strain_range"), where)
-    off = t.get("offset")
-    if off is not None:
-        off = _quantity(ctx, off, "dimensionless", where, "offset")
-        if off < 0.0:
-            raise ctx.error(where, f"offset = {off!r} must be >= 0")
+    off = _offset(ctx, t["offset"], where) if "offset" in t else None
     return LoadCase(direction=direction, file=path, force=force, displacement=disp,
                     stress=stress, strain=strain, lateral=tuple(lateral), delimiter=delim,
                     skip_rows=skip, strain_range=rng, offset=off)
@@ -589,6 +582,15 @@ def _both(ctx: _Ctx, table: dict[str, Any], where: str, a: str, b: str) -> None:
     for key in (a, b):
         if key not in table:
             raise ctx.error(where, f"missing required key {key!r} ({a} and {b} go together)")
+
+
+def _offset(ctx: _Ctx, value: Any, where: str) -> float:
+    """Read the strain offset of the yield line: a strain strictly between 0 and 1."""
+    off = _quantity(ctx, value, "dimensionless", where, "offset")
+    if not 0.0 < off < 1.0:
+        raise ctx.error(where, f"offset = {value!r} must be a strain between 0 and 1, exclusive "
+                               "(e.g. 0.002 or \"0.2 %\")")
+    return off
 
 
 def _strain_range(ctx: _Ctx, value: Any, where: str) -> tuple[float, float] | None:
@@ -661,16 +663,49 @@ def _rve(ctx: _Ctx, value: Any) -> RveSpec:
                    load_cases=tuple(cases), stiffness=stiffness)
 
 
-def _check_section(ctx: _Ctx, value: Any) -> dict[str, Any]:
+def _property_names(architecture: str | None) -> tuple[tuple[str, ...], str]:
+    """Property names a check may grade, and what they are the names of (for messages).
+
+    All names of :data:`micromech.rve.tolerances.PROPERTY_NAMES` without an ``[rve]`` table;
+    with one, those of its architecture (material axes E1 ... nu32 for unidirectional and
+    particulate cells, stack axes Ex ... nuzy for cross-ply and stack cells) and the strengths.
+    """
+    from micromech.rve.causes import STACK_PROPERTIES, UD_PROPERTIES
+    from micromech.rve.tolerances import PROPERTY_NAMES
+
+    if architecture is None:
+        return PROPERTY_NAMES, "the check"
+    elastic = STACK_PROPERTIES if architecture in ("crossply", "stack") else UD_PROPERTIES
+    strengths = tuple(n for n in PROPERTY_NAMES if "strength" in n)
+    return (*elastic, *strengths), f"a {architecture} cell"
+
+
+def _property(ctx: _Ctx, name: str, names: tuple[str, ...], of: str, where: str,
+              key: str) -> str:
+    if name in names:
+        return name
+    from micromech.rve.causes import STACK_PROPERTIES, UD_PROPERTIES
+
+    # the same property in the other axes: x = 1 (fibre), y = 2, z = 3
+    same = {**dict(zip(UD_PROPERTIES, STACK_PROPERTIES, strict=True)),
+            **dict(zip(STACK_PROPERTIES, UD_PROPERTIES, strict=True))}
+    if same.get(name) in names:
+        hint = f"; {of} names it {same[name]!r}"
+    else:
+        hint = suggest(name, names)
+    shown = ", ".join(n for n in names if "strength" not in n)
+    raise ctx.error(where, f"{key} {name!r} is not a property of {of}{hint} (names: {shown}, "
+                           "and yield_strength_D, ultimate_strength_D with D a load direction)")
+
+
+def _check_section(ctx: _Ctx, value: Any, architecture: str | None = None) -> dict[str, Any]:
     where = "[check]"
     t = _table(ctx, value, where)
     _check_keys(ctx, t, _CHECK_KEYS, where)
+    names, of = _property_names(architecture)
     out: dict[str, Any] = {}
     if "offset" in t:
-        off = _quantity(ctx, t["offset"], "dimensionless", where, "offset")
-        if off < 0.0:
-            raise ctx.error(where, f"offset = {t['offset']!r} must be >= 0")
-        out["offset"] = off
+        out["offset"] = _offset(ctx, t["offset"], where)
     if "strain_range" in t:
         out["strain_range"] = _strain_range(ctx, t["strain_range"], where)
     if "tolerance" in t:
@@ -678,10 +713,11 @@ def _check_section(ctx: _Ctx, value: Any) -> dict[str, Any]:
         tt = _table(ctx, t["tolerance"], tw)
         tol: dict[str, float] = {}
         for k, v in tt.items():
+            _property(ctx, k, names, of, tw, "tolerance for")
             x = _quantity(ctx, v, "dimensionless", tw, k)
-            if not 0.0 <= x <= 1.0:
-                raise ctx.error(tw, f"{k} = {v!r} must be a fraction in [0, 1] (e.g. 0.05 or "
-                                    "\"5 %\")")
+            if not 0.0 <= x < 1.0:
+                raise ctx.error(tw, f"{k} = {v!r} must be a relative tolerance in [0, 1) (e.g. "
+                                    "0.05 or \"5 %\")")
             tol[k] = x
         out["tolerance"] = tol
     if "models" in t:
@@ -693,7 +729,7 @@ def _check_section(ctx: _Ctx, value: Any) -> dict[str, Any]:
         props = t["properties"]
         if not isinstance(props, list) or not all(isinstance(p, str) for p in props):
             raise ctx.error(where, f"properties must be a list of names, got {props!r}")
-        out["properties"] = list(props)
+        out["properties"] = [_property(ctx, p, names, of, where, "properties:") for p in props]
     return out
 
 
@@ -756,7 +792,8 @@ def case_from_dict(
                                                                            "mori_tanaka")
     laminate = _laminate(ctx, data["laminate"]) if "laminate" in data else None
     rve = _rve(ctx, data["rve"]) if "rve" in data else None
-    check = _check_section(ctx, data["check"]) if "check" in data else {}
+    check = (_check_section(ctx, data["check"], rve.architecture if rve else None)
+             if "check" in data else {})
     return Case(
         name=name, path=p, directory=ctx.directory, fibre=fibre, matrix=matrix,
         composite=composite, ply=ply, ply_strengths=strengths, ply_model=model,

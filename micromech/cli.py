@@ -203,7 +203,7 @@ def _output_path(path: str, option: str, *, image: bool = False) -> None:
     from micromech.errors import InputError
 
     if image:
-        from micromech.laminate.envelope import check_image_path
+        from micromech.report.files import check_image_path
 
         check_image_path(path, option)
         return
@@ -232,7 +232,12 @@ def laminate_command(
 ) -> None:
     """ABD, laminate constants, ply stresses and failure for the [laminate] of CASE_FILE."""
     from micromech.case import load_case
-    from micromech.laminate import analyse_laminate, failure_envelope, laminate_from_case
+    from micromech.laminate import (
+        analyse_laminate,
+        failure_envelope,
+        laminate_from_case,
+        ply_origin,
+    )
     from micromech.report.laminate import (
         envelope_intercepts_table,
         laminate_json,
@@ -262,7 +267,7 @@ def laminate_command(
     if as_json:
         emit_json(laminate_json(analysis, case=case.name, envelopes=envelopes))
         return
-    click.echo(laminate_table(analysis, case=case.name))
+    click.echo(laminate_table(analysis, case=case.name, ply_origin=ply_origin(case)))
     if envelopes:
         click.echo("\n" + envelope_intercepts_table(envelopes))
         if plot is not None:
@@ -344,17 +349,22 @@ def _rve_refuse_same(target: str, other: str, option: str, what: str) -> None:
 @click.option("--out", type=click.Path(dir_okay=False),
               help="Write the fibre centres and face images: CSV, or JSON for a .json name.")
 @click.option("--unit", default="um", show_default=True, help="Length unit of the CSV columns.")
+@click.option("--fibre-axis", type=click.Choice(["z", "x"]), default="z", show_default=True,
+              help="Axis the fibres run along in the output: z (centres x, y) or x (centres "
+                   "y, z, as in a unidirectional check cell).")
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
 @click.option("--plot", type=click.Path(dir_okay=False), help="Draw the cell to an image file.")
 def rve_command(
     case: str | None, packing: str | None, fraction: str | None, diameter: str | None,
     fibres: int | None, cell_size: str | None, gap: str | None, seed: int | None,
-    out: str | None, unit: str, as_json: bool, plot: str | None,
+    out: str | None, unit: str, fibre_axis: str, as_json: bool, plot: str | None,
 ) -> None:
     """Make the fibre arrangement of an RVE cell from CASE (or --fraction and --diameter).
 
     Prints the achieved fraction, the cell size in um and in fibre radii, nearest-neighbour
-    statistics and the size guidance, and writes the centres for a mesher with --out.
+    statistics and the size guidance, and writes the centres for a mesher with --out. The
+    centres lie in the cell's cross-section: x, y with the fibres along z by default, or y, z
+    with --fibre-axis x (a unidirectional check cell has its fibres along x).
     """
     import math
 
@@ -394,18 +404,20 @@ def rve_command(
         arr = make(vf, d, n_per_side=n, min_gap=0.0 if min_gap is None else min_gap)
     written = None
     if out is not None:
-        written = arr.to_json(out) if out.lower().endswith(".json") else arr.to_csv(out, unit=unit)
+        written = (arr.to_json(out, fibre_axis=fibre_axis) if out.lower().endswith(".json")
+                   else arr.to_csv(out, unit=unit, fibre_axis=fibre_axis))
     if plot is not None:
-        geo.plot_arrangement(arr, plot)
+        geo.plot_arrangement(arr, plot, fibre_axis=fibre_axis)
     if as_json:
-        data = arr.as_dict()
+        data = arr.as_dict(fibre_axis)
         data["case"] = case
         data["file"] = None if written is None else str(written)
         data["plot"] = plot
         emit_json(data)
         return
     title = f"RVE cell{'' if case is None else ' for ' + case}"
-    click.echo(geo.arrangement_text(arr, title, written=written, plot=plot))
+    click.echo(geo.arrangement_text(arr, title, written=written, plot=plot,
+                                    fibre_axis=fibre_axis))
 
 
 # --- size (design) --------------------------------------------------------------------------

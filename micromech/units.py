@@ -14,27 +14,40 @@ import re
 from functools import lru_cache
 from typing import TYPE_CHECKING, Any
 
-from micromech.errors import UnitError
+from micromech.errors import UnitError, suggest
 
 if TYPE_CHECKING:  # pragma: no cover
     import pint
 
-__all__ = ["DIMENSIONS", "parse_quantity", "to_si", "unit_factor", "format_si"]
+__all__ = ["COMMON_UNITS", "DIMENSIONS", "parse_quantity", "to_si", "unit_factor", "format_si"]
 
-#: Physical kinds a field may expect, with the pint dimensionality and the SI unit.
-DIMENSIONS: dict[str, tuple[str, str]] = {
-    "pressure": ("[mass] / [length] / [time] ** 2", "Pa"),
-    "length": ("[length]", "m"),
-    "area": ("[length] ** 2", "m^2"),
-    "force": ("[mass] * [length] / [time] ** 2", "N"),
-    "force_per_length": ("[mass] / [time] ** 2", "N/m"),
-    "moment_per_length": ("[mass] * [length] / [time] ** 2", "N"),
-    "density": ("[mass] / [length] ** 3", "kg/m^3"),
-    "expansion": ("1 / [temperature]", "1/K"),
-    "temperature_change": ("[temperature]", "K"),
-    "energy_per_volume": ("[mass] / [length] / [time] ** 2", "J/m^3"),
-    "dimensionless": ("", ""),
+#: Physical kinds a field may expect -> their SI unit ("" for a plain number). The kind's
+#: dimension is that of its SI unit.
+DIMENSIONS: dict[str, str] = {
+    "pressure": "Pa",
+    "length": "m",
+    "area": "m^2",
+    "force": "N",
+    "force_per_length": "N/m",
+    "moment_per_length": "N",
+    "density": "kg/m^3",
+    "expansion": "1/K",
+    "temperature_change": "K",
+    "energy_per_volume": "J/m^3",
+    "dimensionless": "",
 }
+
+#: Unit names of engineering use, offered when a unit name is unknown (``'KN'`` -> ``'kN'``)
+#: or read as another unit because of its case (``'kn'`` is a knot, ``'MM'`` megamolar).
+COMMON_UNITS: tuple[str, ...] = (
+    "Pa", "kPa", "MPa", "GPa", "psi", "ksi", "Msi", "bar",
+    "N", "kN", "MN", "lbf", "kip",
+    "m", "cm", "mm", "um", "nm", "inch", "in", "ft",
+    "g", "kg", "lb", "J", "kJ", "MJ",
+    "K", "degC", "degF", "delta_degC", "delta_degF", "percent",
+)
+_FOLDED_UNITS = {u.casefold(): u for u in COMMON_UNITS}
+_TOKEN = re.compile(r"(?<![\d.])[A-Za-zµ_]+")
 
 _PLAIN_WORDS = {
     "pressure": "a pressure (e.g. '72 GPa')",
@@ -141,15 +154,51 @@ def _parse_string(text: str, kind: str, field: str) -> float:
     except Exception as exc:  # noqa: BLE001 - pint raises many kinds on malformed text
         raise UnitError(
             f"{field} expects {_PLAIN_WORDS[kind]}, could not read {text!r}{_why(exc)}"
+            f"{_unit_hint(exc, text, kind)}"
         ) from None
     if not hasattr(q, "dimensionality") or q.dimensionality != _dimensionality(kind):
-        raise UnitError(f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}{_what_it_is(q)}")
-    return float(q.to(DIMENSIONS[kind][1] or "dimensionless").magnitude)
+        fixed = _case_fixed(text, kind)
+        hint = f"; did you mean {fixed!r}?" if fixed is not None else ""
+        raise UnitError(
+            f"{field} expects {_PLAIN_WORDS[kind]}, got {text!r}{_what_it_is(q)}{hint}"
+        )
+    return float(q.to(DIMENSIONS[kind] or "dimensionless").magnitude)
 
 
 def _dimensionality(kind: str) -> Any:
     """Return pint's dimensionality of the SI unit of a quantity kind."""
-    return _registry().Quantity(1, DIMENSIONS[kind][1] or "dimensionless").dimensionality
+    return _registry().Quantity(1, DIMENSIONS[kind] or "dimensionless").dimensionality
+
+
+def _case_fixed(text: str, kind: str | None) -> str | None:
+    """Return ``text`` with unit names of the wrong case corrected, when that makes it valid.
+
+    ``'100 KN'`` -> ``'100 kN'``; ``'2 kn'`` (knots) -> ``'2 kN'`` for a force. None when no
+    name changes or the corrected text is not a quantity of ``kind`` (any kind when None).
+    """
+    def fix(m: re.Match[str]) -> str:
+        word = m.group(0)
+        return word if word in COMMON_UNITS else _FOLDED_UNITS.get(word.casefold(), word)
+
+    fixed = _TOKEN.sub(fix, text)
+    if fixed == text:
+        return None
+    try:
+        q: Any = _registry().Quantity(_as_difference(fixed.replace("µ", "u")))
+    except Exception:  # noqa: BLE001 - pint raises many kinds on malformed text
+        return None
+    if kind is not None and getattr(q, "dimensionality", None) != _dimensionality(kind):
+        return None
+    return fixed
+
+
+def _unit_hint(exc: Exception, text: str, kind: str | None) -> str:
+    """Return the "did you mean" hint for a unit text pint did not read as meant, or ''."""
+    fixed = _case_fixed(text, kind)
+    if fixed is not None:
+        return f"; did you mean {fixed!r}?"
+    names = getattr(exc, "unit_names", None) or ()
+    return suggest(names[0], COMMON_UNITS) if names else ""
 
 
 def _what_it_is(q: Any) -> str:
@@ -239,7 +288,9 @@ def unit_factor(unit: str, field: str = "unit") -> float:
     try:
         q = ureg.Quantity(1.0, _as_difference(unit.replace("µ", "u")))
     except Exception as exc:  # noqa: BLE001 - pint raises many kinds on malformed text
-        raise UnitError(f"{field}: unknown unit {unit!r}{_why(exc)}") from None
+        raise UnitError(
+            f"{field}: unknown unit {unit!r}{_why(exc)}{_unit_hint(exc, unit, None)}"
+        ) from None
     return float(q.to_base_units().magnitude)
 
 

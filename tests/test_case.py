@@ -189,6 +189,62 @@ def test_ply_with_model_only_and_strengths_only(tmp_path):
     assert case.ply_strengths.Xt == pytest.approx(1e9)
 
 
+def test_ply_with_nested_strengths_only_gives_strengths(tmp_path):
+    # used to be read as incomplete constants: "missing required field 'E1'"
+    case = load_case(write_case(tmp_path, '[ply]\nstrengths = { Xt = "1.9 GPa", Yt = "50 MPa" '
+                                          '}\n'))
+    assert case.ply is None and case.ply_model == "mori_tanaka"
+    assert (case.ply_strengths.Xt, case.ply_strengths.Yt) == pytest.approx((1.9e9, 5e7))
+
+
+def test_ply_flat_strength_keys_win_over_nested_ones(tmp_path):
+    text = '[ply]\nXt = "2 GPa"\nstrengths = { Xt = "1 GPa", S12 = "80 MPa" }\n'
+    s = load_case(write_case(tmp_path, text)).ply_strengths
+    assert (s.Xt, s.S12) == pytest.approx((2e9, 8e7))
+    text += 'E1 = "140 GPa"\nE2 = "9 GPa"\nnu12 = 0.3\nG12 = "5 GPa"\nnu23 = 0.4\n'
+    case = load_case(write_case(tmp_path, text))
+    assert case.ply.strengths == case.ply_strengths
+    assert (case.ply.strengths.Xt, case.ply.strengths.S12) == pytest.approx((2e9, 8e7))
+
+
+@pytest.mark.parametrize(
+    ("text", "error", "match"),
+    [
+        ("[ply]\nstrengths = 5\n", CaseFileError,
+         r"case\.toml: \[ply\] strengths must be a table such as \{Xt = \"1900 MPa\"\}, got 5"),
+        ("[ply]\nstrengths = { Xtt = 1e9 }\n", InvalidMaterialError,
+         r"case\.toml: \[ply\] strengths: unknown field 'Xtt'; did you mean 'Xt'\?"),
+        ("[ply]\nstrengths = { Xt = 900 }\n", InvalidMaterialError,
+         r"\[ply\] strengths: Xt = 900 Pa is below 1 kPa"),
+    ],
+)
+def test_nested_ply_strengths_are_validated(tmp_path, text, error, match):
+    with pytest.raises(error, match=match):
+        load_case(write_case(tmp_path, text))
+
+
+@pytest.mark.parametrize(
+    ("text", "match"),
+    [
+        ('[fibre]\nE1 = 230\nE2 = "15 GPa"\nnu12 = 0.2\nG12 = "15 GPa"\nnu23 = 0.3\n',
+         r"case\.toml: \[fibre\]: transversely isotropic material 'fibre': E1 = 230 Pa is below "
+         r"0\.1 MPa, far below any fibre or matrix: a bare number is read as Pa; write "
+         r"'230 GPa'"),
+        ('[matrix]\nE = "3500"\nnu = 0.35\n',
+         r"\[matrix\]: isotropic material 'matrix': E = 3500 Pa is below 0\.1 MPa, far below "
+         r"any fibre or matrix: a bare number is read as Pa; write '3500 MPa'"),
+        ('[matrix]\nuse = "epoxy"\nG = 1200\n',
+         r"\[matrix\]: .*G = 1200 Pa is below 0\.1 MPa"),
+        ('[ply]\nYt = 40\n',
+         r"\[ply\] strengths: Yt = 40 Pa is below 1 kPa, far below any fibre, matrix or ply "
+         r"strength: a bare number is read as Pa; write '40 MPa'"),
+    ],
+)
+def test_bare_modulus_or_strength_far_too_small_is_refused(tmp_path, text, match):
+    with pytest.raises(InvalidMaterialError, match=match):
+        load_case(write_case(tmp_path, text))
+
+
 def test_inline_orthotropic_ply(tmp_path):
     text = """
     [ply]
@@ -436,7 +492,18 @@ ERRORS = [
      CaseFileError, r"#1 skip_rows = -1 must be a whole number >= 0"),
     ("[rve]\narchitecture = 'stack'\n[[rve.load_case]]\ndirection = 'x'\nfile = 'h.csv'\n"
      "stress = { column = 1, unit = 'MPa' }\nstrain = { column = 2 }\noffset = -0.1\n",
-     CaseFileError, r"#1 offset = -0.1 must be >= 0"),
+     CaseFileError, r"#1 offset = -0.1 must be a strain between 0 and 1, exclusive"),
+    # a zero offset used to load and fail only in the check ("curve x: offset")
+    ("[rve]\narchitecture = 'stack'\n[[rve.load_case]]\ndirection = 'x'\nfile = 'h.csv'\n"
+     "stress = { column = 1, unit = 'MPa' }\nstrain = { column = 2 }\noffset = 0\n",
+     CaseFileError, r"#1 offset = 0 must be a strain between 0 and 1, exclusive"),
+    ("[rve]\narchitecture = 'stack'\n[[rve.load_case]]\ndirection = 'x'\nfile = 'h.csv'\n"
+     "stress = { column = 1, unit = 'MPa' }\nstrain = { column = 2 }\noffset = '100 %'\n",
+     CaseFileError, r"#1 offset = '100 %' must be a strain between 0 and 1, exclusive"),
+    ("[rve]\narchitecture = 'stack'\n[[rve.load_case]]\ndirection = 'x'\nfile = 'h.csv'\n"
+     "stress = { column = 1, unit = 'MPa' }\nstrain = { column = 2 }\n"
+     "strain_range = [-0.001, 0.01]\n",
+     CaseFileError, r"#1 strain_range = \[-0.001, 0.01\] must satisfy 0 <= lo < hi"),
     ("[rve]\narchitecture = 'stack'\n[[rve.load_case]]\ndirection = 'x'\nfile = 'h.csv'\n"
      "stress = { column = 1, unit = 'MPa' }\nstrain = { column = 2 }\nstrain_range = [0.1]\n",
      CaseFileError, r"#1 strain_range must be \[lo, hi\]"),
@@ -471,9 +538,33 @@ ERRORS = [
     ("[rve]\narchitecture = 'stack'\n[rve.stiffness]\nmatrix = [[1], [1], [1], [1], [1], [1]]\n",
      CaseFileError, r"\[rve.stiffness\] matrix row 1 must be a list of 6 values"),
     # check
-    ("[check]\noffset = -0.002\n", CaseFileError, r"\[check\] offset = -0.002 must be >= 0"),
+    ("[check]\noffset = -0.002\n", CaseFileError,
+     r"\[check\] offset = -0.002 must be a strain between 0 and 1, exclusive"),
+    ("[check]\noffset = 0\n", CaseFileError,
+     r"\[check\] offset = 0 must be a strain between 0 and 1, exclusive"),
+    ("[check]\noffset = 1.0\n", CaseFileError,
+     r"\[check\] offset = 1.0 must be a strain between 0 and 1, exclusive"),
     ("[check]\ntolerance = { E2 = 1.5 }\n", CaseFileError,
-     r"\[check.tolerance\] E2 = 1.5 must be a fraction in \[0, 1\]"),
+     r"\[check.tolerance\] E2 = 1.5 must be a relative tolerance in \[0, 1\)"),
+    # 1.0 loaded, then the check refused it: the same rule at load time now
+    ("[check]\ntolerance = { E2 = 1.0 }\n", CaseFileError,
+     r"\[check.tolerance\] E2 = 1.0 must be a relative tolerance in \[0, 1\)"),
+    ("[check]\ntolerance = { E_2 = 0.2 }\n", CaseFileError,
+     r"case\.toml: \[check.tolerance\] tolerance for 'E_2' is not a property of the check; "
+     r"did you mean 'E2'\? \(names: E1, E2, "),
+    ("[rve]\narchitecture = 'crossply'\n[check]\ntolerance = { nu12 = 0.1 }\n", CaseFileError,
+     r"\[check.tolerance\] tolerance for 'nu12' is not a property of a crossply cell; a "
+     r"crossply cell names it 'nuxy' \(names: Ex, "),
+    ("[check]\nproperties = ['e1', 'E2']\n", CaseFileError,
+     r"case\.toml: \[check\] properties: 'e1' is not a property of the check; did you mean "
+     r"'E1'\?"),
+    ("[rve]\narchitecture = 'unidirectional'\n[check]\nproperties = ['Ex']\n", CaseFileError,
+     r"\[check\] properties: 'Ex' is not a property of a unidirectional cell; a unidirectional "
+     r"cell names it 'E1' \(names: E1, E2, E3, G12, G13, G23, nu12, nu13, nu23, nu21, nu31, "
+     r"nu32, and yield_strength_D, ultimate_strength_D with D a load direction\)"),
+    ("[rve]\narchitecture = 'particulate'\n[check]\nproperties = ['E_1']\n", CaseFileError,
+     r"\[check\] properties: 'E_1' is not a property of a particulate cell; did you mean "
+     r"'E1'\?"),
     ("[check]\ntolerance = { E2 = 'big' }\n", UnitError,
      r"\[check.tolerance\] E2 expects a plain number"),
     ("[check]\nmodels = 'voigt'\n", CaseFileError, r"\[check\] models must be a list of estimate"),
@@ -496,6 +587,19 @@ def test_valid_check_table_passes_lists_through(tmp_path):
                                           "properties = ['E1', 'E2']\nstrain_range = [0, 0.01]\n"))
     assert case.check == {"models": ["voigt", "mori_tanaka"], "properties": ["E1", "E2"],
                           "strain_range": (0.0, 0.01)}
+
+
+def test_check_names_of_the_cell_and_strengths_pass(tmp_path):
+    text = "[rve]\narchitecture = 'stack'\n[check]\nproperties = ['Ex', 'nuzy', " \
+           "'yield_strength_xz', 'ultimate_strength_x']\ntolerance = { Gxy = '15 %' }\n"
+    check = load_case(write_case(tmp_path, text)).check
+    assert check["properties"] == ["Ex", "nuzy", "yield_strength_xz", "ultimate_strength_x"]
+    assert check["tolerance"] == {"Gxy": pytest.approx(0.15)}
+
+
+def test_check_offset_reads_a_percentage(tmp_path):
+    assert load_case(write_case(tmp_path, "[check]\noffset = '0.2 %'\n")).check["offset"] == \
+        pytest.approx(0.002, rel=1e-12)
 
 
 def test_stress_strain_columns_accept_strain_without_unit(tmp_path):

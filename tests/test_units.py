@@ -80,7 +80,7 @@ def test_unit_errors_are_project_errors_and_value_errors():
 
 
 def test_every_kind_has_a_readable_si_unit():
-    for kind, (_, si_unit) in DIMENSIONS.items():
+    for kind, si_unit in DIMENSIONS.items():
         text = f"1 {si_unit}" if si_unit else "1"
         assert parse_quantity(text, kind, kind) == pytest.approx(1.0, rel=1e-12)
 
@@ -183,3 +183,48 @@ def test_malformed_unit_text_is_a_unit_error_not_a_crash():
             parse_quantity(text, "force", "f")
     with pytest.raises(UnitError, match="unknown unit"):
         unit_factor("(")
+
+
+# --- unknown units and units of the wrong case suggest the unit meant ----------------------------
+
+
+@pytest.mark.parametrize(
+    ("text", "kind", "match"),
+    [
+        ("100 KN", "force", r"f expects a force .*could not read '100 KN': 'KN' is not defined in "
+                            r"the unit registry; did you mean '100 kN'\?$"),
+        ("72 Gpa", "pressure", r"did you mean '72 GPa'\?$"),
+        ("72 GPA", "pressure", r"did you mean '72 GPa'\?$"),
+        ("7 UM", "length", r"did you mean '7 um'\?$"),
+        ("100 N/MM", "force_per_length",  # MM is megamolar: a wrong dimension, not unknown
+         r"got '100 N/MM', of dimension .*\[substance\]; did you mean '100 N/mm'\?$"),
+        ("2 kn", "force", r"got '2 kn', of dimension \[length\] / \[time\]; did you mean "
+                          r"'2 kN'\?$"),  # kn is a knot
+        ("5e-6 1/k", "expansion", r"did you mean '5e-6 1/K'\?$"),
+        ("72 GPaa", "pressure", r"'GPaa' is not defined in the unit registry; did you mean "
+                                r"'GPa'\?$"),  # not a case slip: the nearest common unit
+    ],
+)
+def test_unit_slips_suggest_the_unit_meant(text, kind, match):
+    with pytest.raises(UnitError, match=match):
+        parse_quantity(text, kind, "f")
+
+
+def test_unknown_unit_without_a_near_common_unit_has_no_hint():
+    with pytest.raises(UnitError, match=r"'furlongz' is not defined in the unit registry$"):
+        parse_quantity("3 furlongz", "length", "f")
+    with pytest.raises(UnitError, match=r"got '7 mm', which is a length$"):
+        parse_quantity("7 mm", "pressure", "E")  # a right-case unit of another kind
+
+
+@pytest.mark.parametrize(("unit", "hint"), [("KN", "kN"), ("Mpa", "MPa"), ("GPA", "GPa")])
+def test_unit_factor_suggests_the_unit_meant(unit, hint):
+    with pytest.raises(UnitError, match=rf"unit: unknown unit '{unit}': .*; did you mean "
+                                        rf"'{hint}'\?$"):
+        unit_factor(unit)
+
+
+def test_dimensions_map_each_kind_to_its_si_unit():
+    assert DIMENSIONS["pressure"] == "Pa" and DIMENSIONS["force_per_length"] == "N/m"
+    assert DIMENSIONS["dimensionless"] == ""
+    assert all(isinstance(u, str) for u in DIMENSIONS.values())

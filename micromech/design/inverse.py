@@ -125,7 +125,13 @@ def _property_function(model: ForwardModel, name: str) -> Callable[[Array], Arra
 
 def _span(a: float, b: float) -> str:
     """``"Vf a"`` for a point, ``"Vf a to b"`` for an interval."""
-    return f"Vf {a:.4g}" if a == b else f"Vf {a:.4g} to {b:.4g}"
+    return f"Vf {_range_text(a, b, lambda x: f'{x:.4g}')}"
+
+
+def _range_text(a: float, b: float, fmt: Callable[[float], str]) -> str:
+    """Return ``"a"`` when both ends print the same (a point), else ``"a to b"``."""
+    fa, fb = fmt(a), fmt(b)
+    return fa if fa == fb else f"{fa} to {fb}"
 
 
 @dataclass(frozen=True)
@@ -732,8 +738,9 @@ def _mass_text(iv: tuple[FractionInterval, ...]) -> str:
     lo, hi = iv[0].low, iv[-1].high
     parts = []
     if lo.weight_fraction is not None and hi.weight_fraction is not None:
-        parts.append(f"weight fraction {lo.weight_fraction:.4g} to {hi.weight_fraction:.4g}")
+        parts.append("weight fraction " + _range_text(lo.weight_fraction, hi.weight_fraction,
+                                                      lambda x: f"{x:.4g}"))
     if lo.density is not None and hi.density is not None:
-        parts.append(f"density {format_value('density', lo.density)} to "
-                     f"{format_value('density', hi.density)}")
+        parts.append("density " + _range_text(lo.density, hi.density,
+                                              lambda x: format_value("density", x)))
     return f" ({'; '.join(parts)})" if parts else ""

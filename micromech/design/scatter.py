@@ -11,15 +11,15 @@ Inputs and their physical ranges (samples outside are redrawn):
 ======================================  ===================================  ================
 input                                   range                                CoV group
 ======================================  ===================================  ================
-fibre.E (isotropic fibre)               E > 0                                ``cov``
-fibre.E1, fibre.E2, fibre.G12 (TI)      > 0                                  ``cov``
-fibre.nu (isotropic)                    -1 < nu < 1/2                        ``cov_poisson``
-fibre.nu12, fibre.nu23 (TI)             -1 < nu23, nu23 < 1 - 2 nu12^2 E2/E1  ``cov_poisson``
-fibre.alpha / alpha1, alpha2            any                                  ``cov_expansion``
-matrix.E                                E > 0                                ``cov``
-matrix.nu                               -1 < nu < 1/2                        ``cov_poisson``
-matrix.alpha                            any                                  ``cov_expansion``
-fibre.density, matrix.density           > 0                                  ``cov_density``
+fibre_E (isotropic fibre)               E > 0                                ``cov``
+fibre_E1, fibre_E2, fibre_G12 (TI)      > 0                                  ``cov``
+fibre_nu (isotropic)                    -1 < nu < 1/2                        ``cov_poisson``
+fibre_nu12, fibre_nu23 (TI)             -1 < nu23, nu23 < 1 - 2 nu12^2 E2/E1  ``cov_poisson``
+fibre_alpha / alpha1, alpha2            any                                  ``cov_expansion``
+matrix_E                                E > 0                                ``cov``
+matrix_nu                               -1 < nu < 1/2                        ``cov_poisson``
+matrix_alpha                            any                                  ``cov_expansion``
+fibre_density, matrix_density           > 0                                  ``cov_density``
 volume_fraction                         0 < Vf < packing limit (and 1 - Vv)  ``cov_fraction``
 ======================================  ===================================  ================
 
@@ -119,25 +119,25 @@ def constituent_inputs(
     spec: dict[str, tuple[float, float, float, float]] = {}  # name -> mean, cov, lower, upper
     inf = float("inf")
     if f.is_isotropic:
-        spec["fibre.E"] = (_f(f.E1), cov, 0.0, inf)
-        spec["fibre.nu"] = (_f(f.nu12), cov_poisson, -1.0, 0.5)
+        spec["fibre_E"] = (_f(f.E1), cov, 0.0, inf)
+        spec["fibre_nu"] = (_f(f.nu12), cov_poisson, -1.0, 0.5)
         if f.alpha1 is not None:
-            spec["fibre.alpha"] = (_f(f.alpha1), cov_expansion, -inf, inf)
+            spec["fibre_alpha"] = (_f(f.alpha1), cov_expansion, -inf, inf)
     else:
         for k in ("E1", "E2", "G12"):
-            spec[f"fibre.{k}"] = (_f(getattr(f, k)), cov, 0.0, inf)
-        spec["fibre.nu12"] = (_f(f.nu12), cov_poisson, -inf, inf)
-        spec["fibre.nu23"] = (_f(f.nu23), cov_poisson, -1.0, 1.0)
+            spec[f"fibre_{k}"] = (_f(getattr(f, k)), cov, 0.0, inf)
+        spec["fibre_nu12"] = (_f(f.nu12), cov_poisson, -inf, inf)
+        spec["fibre_nu23"] = (_f(f.nu23), cov_poisson, -1.0, 1.0)
         if f.alpha1 is not None:
-            spec["fibre.alpha1"] = (_f(f.alpha1), cov_expansion, -inf, inf)
-            spec["fibre.alpha2"] = (_f(f.alpha2), cov_expansion, -inf, inf)
-    spec["matrix.E"] = (_f(m.E), cov, 0.0, inf)
-    spec["matrix.nu"] = (_f(m.nu), cov_poisson, -1.0, 0.5)
+            spec["fibre_alpha1"] = (_f(f.alpha1), cov_expansion, -inf, inf)
+            spec["fibre_alpha2"] = (_f(f.alpha2), cov_expansion, -inf, inf)
+    spec["matrix_E"] = (_f(m.E), cov, 0.0, inf)
+    spec["matrix_nu"] = (_f(m.nu), cov_poisson, -1.0, 0.5)
     if m.alpha is not None:
-        spec["matrix.alpha"] = (_f(m.alpha), cov_expansion, -inf, inf)
+        spec["matrix_alpha"] = (_f(m.alpha), cov_expansion, -inf, inf)
     if c.has_density:
-        spec["fibre.density"] = (_f(c.fibre_density), cov_density, 0.0, inf)
-        spec["matrix.density"] = (_f(c.matrix_density), cov_density, 0.0, inf)
+        spec["fibre_density"] = (_f(c.fibre_density), cov_density, 0.0, inf)
+        spec["matrix_density"] = (_f(c.matrix_density), cov_density, 0.0, inf)
     spec["volume_fraction"] = (float(volume_fraction), cov_fraction, 0.0, c.upper_fraction)
     for k in covs or {}:
         if k not in spec:
@@ -149,16 +149,16 @@ def constituent_inputs(
 
 def _phases(s: Mapping[str, Array], iso: bool) -> tuple[FibrePhase, MatrixPhase]:
     if iso:
-        f = FibrePhase.isotropic(s["fibre.E"], s["fibre.nu"], s.get("fibre.alpha"))
+        f = FibrePhase.isotropic(s["fibre_E"], s["fibre_nu"], s.get("fibre_alpha"))
     else:
-        f = FibrePhase(s["fibre.E1"], s["fibre.E2"], s["fibre.nu12"], s["fibre.G12"],
-                       s["fibre.nu23"], s.get("fibre.alpha1"), s.get("fibre.alpha2"))
-    return f, MatrixPhase(s["matrix.E"], s["matrix.nu"], s.get("matrix.alpha"))
+        f = FibrePhase(s["fibre_E1"], s["fibre_E2"], s["fibre_nu12"], s["fibre_G12"],
+                       s["fibre_nu23"], s.get("fibre_alpha1"), s.get("fibre_alpha2"))
+    return f, MatrixPhase(s["matrix_E"], s["matrix_nu"], s.get("matrix_alpha"))
 
 
 def _valid_ti(s: Mapping[str, Array]) -> NDArray[np.bool_]:
-    lim = 1.0 - 2.0 * s["fibre.nu12"] ** 2 * s["fibre.E2"] / s["fibre.E1"]
-    return np.asarray(s["fibre.nu23"] < lim)
+    lim = 1.0 - 2.0 * s["fibre_nu12"] ** 2 * s["fibre_E2"] / s["fibre_E1"]
+    return np.asarray(s["fibre_nu23"] < lim)
 
 
 def monte_carlo(
@@ -261,14 +261,14 @@ def monte_carlo(
         cov_expansion=cov_expansion, cov_density=cov_density, covs=covs,
         distribution=distribution,
     )
-    iso = "fibre.E" in inputs
+    iso = "fibre_E" in inputs
 
     def evaluate(s: dict[str, Array]) -> dict[str, Any]:
         f, m = _phases(s, iso)
         over: dict[str, Any] = {"fibre": f, "matrix": m}
         if c.has_density:
-            over["fibre_density"] = s["fibre.density"]
-            over["matrix_density"] = s["matrix.density"]
+            over["fibre_density"] = s["fibre_density"]
+            over["matrix_density"] = s["matrix_density"]
         props = properties_at(replace(c, **over), model, s["volume_fraction"])  # type: ignore[arg-type]
         return {k: property_values(props, k) for k in names}
 

@@ -104,7 +104,7 @@ def property_kind(name: str) -> tuple[str, str | None]:
 
 
 def _si_unit(kind: str) -> str:
-    return DIMENSIONS[kind][1] or "1"
+    return DIMENSIONS[kind] or "1"
 
 
 def parse_property_value(value: Any, name: str) -> float:

@@ -53,7 +53,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator, Mapping
 from dataclasses import dataclass, field, replace
-from typing import Any
+from typing import Any, Literal
 
 import numpy as np
 from numpy.typing import NDArray
@@ -78,7 +78,7 @@ from micromech.homogenize.rule_of_mixtures import rule_of_mixtures
 from micromech.homogenize.strength import CAUTION, StrengthEstimate, strength_estimates
 from micromech.results import ElasticConstants
 
-__all__ = ["Estimates", "estimate", "MODEL_KEYS", "BOUND_KEYS", "CAUTION"]
+__all__ = ["Estimates", "Excursion", "estimate", "MODEL_KEYS", "BOUND_KEYS", "CAUTION"]
 
 Array = NDArray[np.float64]
 
@@ -98,8 +98,42 @@ ALIGNED_ONLY: tuple[str, ...] = ("rule_of_mixtures", "halpin_tsai", "chamis", "c
 #: memory), applied from aspect ratio 10 on (common practice, no source).
 RANDOM_ROD_CONTACT = 5.4
 RANDOM_ROD_MIN_ASPECT = 10.0
+#: Relative slack before an estimate counts as outside the bounds (round-off: several estimates
+#: coincide with a bound, e.g. Mori-Tanaka with the lower Hashin-Shtrikman bound on k23).
+OUTSIDE_RTOL = 1e-6
 _HS_RANDOM = ("; rigorous for any statistically isotropic two-phase composite of isotropic "
               "phases, whatever the inclusion shape (Hashin & Shtrikman 1963)")
+
+
+@dataclass(frozen=True)
+class Excursion:
+    """An estimate that leaves the rigorous bounds of the same composite.
+
+    Attributes
+    ----------
+    model : str
+        Model key of the estimate.
+    name : str
+        Constant name.
+    value : float
+        The estimate where it lies furthest outside (in SI).
+    side : {"below", "above"}
+        Below the lower or above the upper bound.
+    bound : float
+        The bound it passes at that point.
+    bound_model : str
+        Model key giving that bound.
+    fraction : float
+        Fibre volume fraction at that point.
+    """
+
+    model: str
+    name: str
+    value: float
+    side: Literal["below", "above"]
+    bound: float
+    bound_model: str
+    fraction: float
 
 
 @dataclass(frozen=True, eq=False)
@@ -154,27 +188,108 @@ class Estimates(Mapping[str, ElasticConstants]):
         tuple of ndarray or None
             ``(lower, upper)``.
         """
-        lows: tuple[str, ...]
-        ups: tuple[str, ...]
+        lo, up = self._bounding_values(name)
+        if not lo or not up:
+            return None
+        return np.maximum.reduce(np.broadcast_arrays(*lo.values())), np.minimum.reduce(
+            np.broadcast_arrays(*up.values()))
+
+    def _bound_keys(self, name: str) -> tuple[tuple[str, ...], tuple[str, ...]]:
+        """Model keys whose value of ``name`` is a rigorous lower / upper bound (see band)."""
         inclusion = getattr(self.composite, "inclusion", "")
         orientation = getattr(self.composite, "orientation", "aligned")
         aligned = orientation == "aligned"
         if name in _MODULI:
-            lows, ups = ("reuss", "hashin_shtrikman_lower"), ("voigt", "hashin_shtrikman_upper")
-        elif (name in ("nu12", "nu13") and inclusion == "continuous" and aligned) or (
+            return ("reuss", "hashin_shtrikman_lower"), ("voigt", "hashin_shtrikman_upper")
+        if (name in ("nu12", "nu13") and inclusion == "continuous" and aligned) or (
             name in ("alpha1", "alpha2", "alpha3")
             and ((aligned and inclusion in ("continuous", "sphere"))
                  or orientation == "random_3d")
         ):
-            lows, ups = ("hashin_shtrikman_lower",), ("hashin_shtrikman_upper",)
-        else:
-            return None
-        lo = [v for k in lows if k in self.models and (v := self.models[k].get(name)) is not None]
-        up = [v for k in ups if k in self.models and (v := self.models[k].get(name)) is not None]
-        if not lo or not up:
-            return None
-        return np.maximum.reduce(np.broadcast_arrays(*lo)), np.minimum.reduce(
-            np.broadcast_arrays(*up))
+            return ("hashin_shtrikman_lower",), ("hashin_shtrikman_upper",)
+        return (), ()
+
+    def _bounding_values(self, name: str) -> tuple[dict[str, Any], dict[str, Any]]:
+        """Lower and upper bounds on ``name`` present, by model key (either may be empty)."""
+        lows, ups = self._bound_keys(name)
+        got = {k: v for k in (*lows, *ups)
+               if k in self.models and (v := self.models[k].get(name)) is not None}
+        return ({k: got[k] for k in lows if k in got}, {k: got[k] for k in ups if k in got})
+
+    def is_bound(self, key: str, name: str) -> bool:
+        """Whether the value of constant ``name`` given by model ``key`` is a rigorous bound.
+
+        The bound models give some constants that are not bounds: the Voigt and Reuss bounds
+        (Hill 1952) hold for the stiffness and so for the moduli, not for Poisson ratios or
+        CTEs; the Hashin-Shtrikman forms bound nu12 of aligned continuous fibres only (Hill
+        1964) and the CTEs only where :meth:`band` says so.
+
+        Parameters
+        ----------
+        key : str
+            Model key (a key of :data:`BOUND_KEYS` for a possible ``True``).
+        name : str
+            Constant name.
+
+        Returns
+        -------
+        bool
+            True where :meth:`band` uses that value as a lower or upper bound.
+        """
+        lows, ups = self._bound_keys(name)
+        return key in lows or key in ups
+
+    def outside_bounds(
+        self, names: tuple[str, ...] | None = None, rtol: float = OUTSIDE_RTOL
+    ) -> list[Excursion]:
+        """Estimates that leave the rigorous bounds of this composite.
+
+        Several estimates are known approximations that need not respect the bounds (the rule
+        of mixtures, Halpin-Tsai and Chamis for Poisson ratios, transverse moduli and CTEs); an
+        estimate outside the bounds is wrong there by at least the distance to the bound.
+
+        Parameters
+        ----------
+        names : tuple of str, optional
+            Constants to look at; default all constants with a bound (one side is enough:
+            with voids only the Voigt upper bound remains).
+        rtol : float
+            Slack relative to the larger magnitude of the band ends (round-off).
+
+        Returns
+        -------
+        list of Excursion
+            One per model and constant outside, at its furthest point; model order.
+        """
+        if names is None:
+            names = (*_MODULI, "nu12", "nu13", "nu23", "alpha1", "alpha2", "alpha3")
+        vf = np.asarray(self.composite.volume_fraction, dtype=np.float64)
+        out: list[Excursion] = []
+        for key in self.models:
+            if key in BOUND_KEYS:
+                continue
+            for name in names:
+                value = self.models[key].get(name)
+                if value is None:
+                    continue
+                lo, up = self._bounding_values(name)
+                for side, bounds in (("below", lo), ("above", up)):
+                    if not bounds:
+                        continue
+                    keys = list(bounds)
+                    arrays = np.broadcast_arrays(value, vf, *bounds.values())
+                    v, f, b = arrays[0], arrays[1], np.stack(arrays[2:])
+                    tight = np.argmax(b, axis=0) if side == "below" else np.argmin(b, axis=0)
+                    edge = np.take_along_axis(b, tight[None], axis=0)[0]
+                    slack = rtol * np.max(np.abs(b), axis=0)
+                    gap = (edge - v) if side == "below" else (v - edge)
+                    if not np.any(gap > slack):
+                        continue
+                    i = np.unravel_index(int(np.argmax(np.where(gap > slack, gap, -np.inf))),
+                                         gap.shape)
+                    out.append(Excursion(key, name, float(v[i]), side,  # type: ignore[arg-type]
+                                         float(edge[i]), keys[int(tight[i])], float(f[i])))
+        return out
 
     def as_dict(self) -> dict[str, Any]:
         """Return the JSON contract (SI units, None where a model gives no value).

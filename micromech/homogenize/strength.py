@@ -57,6 +57,7 @@ from micromech.homogenize import _common as cm
 from micromech.homogenize.mori_tanaka import mori_tanaka
 from micromech.results import json_value
 from micromech.safety import CAUTION
+from micromech.tensors import at_index
 
 __all__ = [
     "StrengthEstimate",
@@ -69,9 +70,13 @@ __all__ = [
     "fibre_spacing_ratio",
     "strength_estimates",
     "CAUTION",
+    "FRACTION_SUM_TOL",
 ]
 
 Array = NDArray[np.float64]
+
+#: Allowed deviation of a sum of phase volume fractions from 1 (round-off of 1 - vf - vv).
+FRACTION_SUM_TOL = 1e-9
 
 
 @dataclass(frozen=True, eq=False)
@@ -388,7 +393,10 @@ def yield_bounds(yield_strengths: ArrayLike, fractions: ArrayLike) -> tuple[Arra
     Raises
     ------
     InputError
-        If a yield strength is negative or the shapes differ.
+        If a yield strength is negative, the shapes differ or the fractions do not sum to 1
+        (within :data:`FRACTION_SUM_TOL`).
+    FractionError
+        If a fraction lies outside [0, 1].
 
     References
     ----------
@@ -410,6 +418,14 @@ def yield_bounds(yield_strengths: ArrayLike, fractions: ArrayLike) -> tuple[Arra
     if np.any(~(s >= 0.0)):
         raise InputError(f"yield_strengths = {yield_strengths!r}: must be >= 0")
     cm.fraction(c, "fractions")
+    total = np.sum(c, axis=0)
+    off = np.abs(total - 1.0) > FRACTION_SUM_TOL
+    if np.any(off):
+        raise InputError(
+            f"fractions sum to {float(np.asarray(total)[off].ravel()[0]):.12g}"
+            f"{at_index(off)}; the phase volume fractions "
+            f"must sum to 1 (within {FRACTION_SUM_TOL:g})"
+        )
     s, c = np.broadcast_arrays(s, c)
     present = c > 0.0
     lower = np.min(np.where(present, s, np.inf), axis=0)

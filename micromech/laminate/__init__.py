@@ -17,7 +17,7 @@ Public names
   :func:`first_ply_failure`, :func:`last_ply_failure`, :func:`failure_envelope`,
   :func:`plot_envelopes`
 - one call: :func:`analyse_laminate`; from a case file: :func:`laminate_from_case`,
-  :func:`plies_from_case`, :func:`ply_material_from_case`
+  :func:`plies_from_case`, :func:`ply_material_from_case`, :func:`ply_origin`
 """
 
 from micromech.laminate.analysis import (
@@ -26,6 +26,7 @@ from micromech.laminate.analysis import (
     laminate_from_case,
     plies_from_case,
     ply_material_from_case,
+    ply_origin,
 )
 from micromech.laminate.clt import (
     LOAD_NAMES,
@@ -106,6 +107,7 @@ __all__ = [
     "plane_stress_reduce",
     "plies_from_case",
     "ply_material_from_case",
+    "ply_origin",
     "ply_strength_ratios",
     "plot_envelopes",
     "reduced_stiffness",

@@ -19,7 +19,7 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.errors import CaseFileError, InputError
 from micromech.laminate.clt import Laminate, LaminateConstants, LaminateResponse, load_vector
 from micromech.laminate.failure import CRITERIA, REQUIRED_STRENGTHS, CriterionResult
-from micromech.laminate.ply import Ply, PlyMaterial
+from micromech.laminate.ply import STRENGTH_NAMES, STRENGTHS_HINT, Ply, PlyMaterial
 from micromech.laminate.progressive import (
     FailureEvent,
     FailureSequence,
@@ -34,6 +34,7 @@ __all__ = [
     "LaminateAnalysis",
     "analyse_laminate",
     "ply_material_from_case",
+    "ply_origin",
     "plies_from_case",
     "laminate_from_case",
 ]
@@ -173,13 +174,15 @@ def analyse_laminate(
     loaded = bool(np.any(vec != 0.0) or dT != 0.0)
     if loaded:
         response = laminate.response(vec, dT)
-        missing = sorted({
+        absent = {
             name for p in laminate.plies
             for name in (REQUIRED_STRENGTHS if p.material.strengths is None
                          else p.material.strengths.missing(REQUIRED_STRENGTHS))
-        })
+        }
+        missing = [name for name in REQUIRED_STRENGTHS if name in absent]
         if missing:
-            notes.append(f"failure analysis needs ply strengths {', '.join(missing)}")
+            notes.append(f"failure analysis needs ply strengths {', '.join(missing)}: "
+                         f"{STRENGTHS_HINT}")
         else:
             for key in CRITERIA:
                 criteria[key] = ply_strength_ratios(
@@ -238,6 +241,38 @@ def ply_material_from_case(case: Any) -> PlyMaterial:
         return PlyMaterial.from_composite(composite, model, getattr(case, "ply_strengths", None))
     except InputError as exc:
         raise CaseFileError(f"{_label(case)}: {exc}") from None
+
+
+def ply_origin(case: Any) -> str:
+    """Say where the ply constants and the ply strengths of a case come from.
+
+    Follows the same rule as :func:`ply_material_from_case`.
+
+    Parameters
+    ----------
+    case : Case
+        A loaded case (:func:`micromech.case.load_case`).
+
+    Returns
+    -------
+    str
+        E.g. ``"mori_tanaka estimate from [fibre], [matrix] and [composite]; strengths Xt, Xc,
+        Yt, Yc, S12 from [ply] of the case"``.
+    """
+    ply = getattr(case, "ply", None)
+    if ply is not None:
+        name = str(getattr(ply, "name", "") or "")
+        head = "constants from [ply] of the case" + (f" ({name})" if name not in ("", "ply")
+                                                    else "")
+        strengths = getattr(ply, "strengths", None)
+    else:
+        model = getattr(case, "ply_model", "mori_tanaka") or "mori_tanaka"
+        head = f"{model} estimate from [fibre], [matrix] and [composite]"
+        strengths = getattr(case, "ply_strengths", None)
+    given = [k for k in STRENGTH_NAMES if getattr(strengths, k, None) is not None]
+    if given:
+        return f"{head}; strengths {', '.join(given)} from [ply] of the case"
+    return f"{head}; no ply strengths (failure analysis needs Xt, Xc, Yt, Yc, S12 in [ply])"
 
 
 def _label(case: Any) -> str:

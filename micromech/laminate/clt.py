@@ -350,7 +350,8 @@ class Laminate:
             raise InputError("laminate: needs at least one ply")
         for i, p in enumerate(plies):
             if not isinstance(p, Ply):
-                raise InputError(f"laminate: ply {i} is a {type(p).__name__}, expected a Ply")
+                raise InputError(f"laminate: ply {i + 1} (from 1 at the bottom) is a "
+                                 f"{type(p).__name__}, expected a Ply")
         object.__setattr__(self, "plies", plies)
         t = np.array([p.thickness for p in plies])
         z = np.concatenate([[0.0], np.cumsum(t)]) - t.sum() / 2.0
@@ -636,7 +637,8 @@ class Laminate:
             for i, p in enumerate(self.plies):
                 if not p.material.has_expansion:
                     raise InputError(
-                        f"ply {i} ({p.material.name or 'unnamed'}): alpha1 and alpha2 are "
+                        f"ply {i + 1} of {self.n_plies} from the bottom "
+                        f"({p.material.name or 'unnamed'}): alpha1 and alpha2 are "
                         f"needed for a temperature change (delta_T = {dT:g} K)"
                     )
         NT = np.einsum("nij,nj->i", self.Qbar, self._arrays["alpha"] * self.thicknesses[:, None])

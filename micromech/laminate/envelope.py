@@ -27,10 +27,10 @@ from micromech.errors import InputError
 from micromech.laminate.clt import LOAD_NAMES, Laminate
 from micromech.laminate.failure import MODES
 from micromech.laminate.progressive import ply_strength_ratios
+from micromech.report.files import check_image_path
 from micromech.safety import CAUTION
 
-__all__ = ["DISPLAY_UNITS", "ENVELOPE_AXES", "Envelope", "check_image_path",
-           "failure_envelope", "plot_envelopes"]
+__all__ = ["DISPLAY_UNITS", "ENVELOPE_AXES", "Envelope", "failure_envelope", "plot_envelopes"]
 
 Array = NDArray[np.float64]
 
@@ -205,14 +205,15 @@ def failure_envelope(
 def plot_envelopes(
     envelopes: Sequence[Envelope], path: str | Path, title: str = ""
 ) -> Path:
-    """Draw one or more envelopes (same axes) into a PNG file.
+    """Draw one or more envelopes (same axes) into an image file.
 
     Parameters
     ----------
     envelopes : sequence of Envelope
         Envelopes to overlay, e.g. one per criterion.
     path : str or Path
-        Output file; the format follows the suffix (``.png`` recommended).
+        Output file; the format follows the suffix, one of
+        :data:`micromech.report.files.IMAGE_FORMATS` (``.png`` recommended).
     title : str
         Plot title.
 
@@ -224,8 +225,8 @@ def plot_envelopes(
     Raises
     ------
     InputError
-        If no envelope is given, their axes differ, the file suffix is not an image format
-        matplotlib writes, or the directory does not exist.
+        If no envelope is given, their axes differ, the file suffix is not one of
+        :data:`~micromech.report.files.IMAGE_FORMATS`, or the directory does not exist.
     """
     out = check_image_path(path, "plot file")
     if not envelopes:
@@ -257,40 +258,4 @@ def plot_envelopes(
     fig.text(0.5, 0.01, CAUTION, ha="center", va="bottom", fontsize=6.5, wrap=True)
     fig.subplots_adjust(bottom=0.14)
     fig.savefig(out, dpi=120)
-    return out
-
-
-def check_image_path(path: str | Path, field: str) -> Path:
-    """Check that an image can be written to ``path``: a known format and an existing folder.
-
-    Parameters
-    ----------
-    path : str or Path
-        The file to write; no suffix means PNG.
-    field : str
-        How the path is named in messages (e.g. ``"--plot"``).
-
-    Returns
-    -------
-    Path
-        The path.
-
-    Raises
-    ------
-    InputError
-        If the suffix is not a format matplotlib writes, or the folder does not exist.
-    """
-    from matplotlib.backend_bases import FigureCanvasBase
-
-    out = Path(path)
-    suffix = out.suffix.lower().lstrip(".")
-    formats = FigureCanvasBase.get_supported_filetypes()
-    if suffix and suffix not in formats:
-        raise InputError(
-            f"{field} = {str(path)!r}: format {suffix!r} is not an image format that can be "
-            f"written; use one of {', '.join(sorted(formats))}"
-        )
-    folder = out.parent if str(out.parent) else Path(".")
-    if not folder.is_dir():
-        raise InputError(f"{field} = {str(path)!r}: folder {str(folder)!r} does not exist")
     return out

@@ -32,13 +32,18 @@ from micromech.errors import InputError, InvalidMaterialError, MicromechError
 from micromech.laminate.failure import REQUIRED_STRENGTHS
 from micromech.units import parse_quantity
 
-__all__ = ["PlyStrengths", "PlyMaterial", "Ply", "STRENGTH_NAMES"]
+__all__ = ["PlyStrengths", "PlyMaterial", "Ply", "STRENGTH_NAMES", "STRENGTHS_HINT"]
 
 Array = NDArray[np.float64]
 
 #: Ply strength names: Xt, Xc (fibre direction), Yt, Yc (transverse), S12 (in-plane shear),
 #: S23 (transverse shear, used by Hashin's matrix-compression mode).
 STRENGTH_NAMES: tuple[str, ...] = ("Xt", "Xc", "Yt", "Yc", "S12", "S23")
+#: Where ply strengths go, said with every message on missing strengths.
+STRENGTHS_HINT: str = (
+    "give them as flat keys Xt, Xc, Yt, Yc, S12 in the case's [ply] table (e.g. Xt = "
+    "\"1000 MPa\"); the strength estimates of `micromech estimate` are not used"
+)
 
 
 def _scalar(

@@ -39,7 +39,7 @@ from numpy.typing import ArrayLike, NDArray
 from micromech.errors import InputError
 from micromech.laminate.clt import Laminate, LaminateResponse, load_vector
 from micromech.laminate.failure import MODES, CriterionResult, evaluate_criterion
-from micromech.laminate.ply import STRENGTH_NAMES, PlyStrengths
+from micromech.laminate.ply import STRENGTH_NAMES, STRENGTHS_HINT, PlyStrengths
 
 __all__ = [
     "ply_strength_ratios",
@@ -67,8 +67,9 @@ def _stacked_strengths(laminate: Laminate) -> PlyStrengths:
                     col = []
                     break
                 raise InputError(
-                    f"ply {i} ({p.material.name or 'unnamed'}): strength {name} missing; "
-                    "failure analysis needs Xt, Xc, Yt, Yc and S12 for every ply"
+                    f"ply {i + 1} of {laminate.n_plies} from the bottom "
+                    f"({p.material.name or 'unnamed'}): strength {name} missing; failure "
+                    f"analysis needs Xt, Xc, Yt, Yc and S12 for every ply: {STRENGTHS_HINT}"
                 )
             col.append(float(v))
         values[name] = np.array(col)[:, None] if col else None

@@ -72,7 +72,6 @@ References
 
 from __future__ import annotations
 
-import difflib
 import math
 from dataclasses import dataclass, replace
 from typing import Any, Literal
@@ -80,7 +79,7 @@ from typing import Any, Literal
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from micromech.errors import FractionError, InputError, InvalidMaterialError
+from micromech.errors import FractionError, InputError, InvalidMaterialError, suggest
 from micromech.homogenize.mori_tanaka import INCLUSIONS
 from micromech.homogenize.orientation import ORIENTATIONS
 from micromech.materials.models import Isotropic, Material, Orthotropic, TransverselyIsotropic
@@ -164,9 +163,8 @@ def packing_limit(inclusion: str, arrangement: str) -> float:
 
 def _choice(field: str, value: Any, options: tuple[str, ...]) -> str:
     if value not in options:
-        near = difflib.get_close_matches(str(value), options, n=1, cutoff=0.5)
-        hint = f"; did you mean {near[0]!r}?" if near else ""
-        raise InputError(f"{field} = {value!r} is not one of {', '.join(options)}{hint}")
+        raise InputError(f"{field} = {value!r} is not one of {', '.join(options)}"
+                         f"{suggest(value, options)}")
     return str(value)
 
 

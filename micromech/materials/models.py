@@ -19,7 +19,6 @@ References
 
 from __future__ import annotations
 
-import difflib
 import math
 from typing import Any, ClassVar, Literal, cast
 
@@ -28,7 +27,7 @@ from numpy.typing import NDArray
 from pydantic import BaseModel, ConfigDict, Field, ValidationError, model_validator
 
 from micromech import tensors
-from micromech.errors import InvalidMaterialError, MicromechError
+from micromech.errors import InvalidMaterialError, MicromechError, suggest
 from micromech.results import CONSTANT_NAMES, ElasticConstants
 from micromech.units import parse_quantity
 
@@ -46,6 +45,13 @@ Array = NDArray[np.float64]
 
 #: Relative tolerance for "two given constants agree" (e.g. G23 and nu23 given together).
 CONSISTENCY_RTOL = 1e-6
+
+#: Least modulus (E*, G*) and least strength accepted, Pa: 0.1 MPa and 1 kPa lie far below any
+#: fibre, matrix or ply (soft elastomers start near 1 MPa); a smaller positive value is almost
+#: always a number written without its unit (``E1 = 230`` is 230 Pa). Common practice, no
+#: source.
+MODULUS_FLOOR = 1e5
+STRENGTH_FLOOR = 1e3
 
 
 # --- error formatting -------------------------------------------------------------------------
@@ -76,8 +82,7 @@ def _convert_validation_error(exc: ValidationError, cls: type, data: Any) -> Mic
             pool = fields
             if len(e.get("loc", ())) > 1 and str(e["loc"][0]) == "strengths":
                 pool = list(Strengths.model_fields)
-            near = difflib.get_close_matches(last, pool, n=1, cutoff=0.5)
-            hint = f"; did you mean {near[0]!r}?" if near else f"; valid fields: {', '.join(pool)}"
+            hint = suggest(last, pool) or f"; valid fields: {', '.join(pool)}"
             text = f"unknown field {loc!r}{hint}"
         elif e["type"] == "missing":
             text = f"missing required field {loc!r}"
@@ -118,8 +123,39 @@ class _Frozen(BaseModel):
             x = parse_quantity(value, kind, key)
             if not math.isfinite(x):
                 raise InvalidMaterialError(f"{key} = {value!r} must be finite")
+            if kind == "pressure":
+                _check_floor(key, value, x)
             out[key] = x
         return out
+
+
+def _is_bare(value: Any) -> bool:
+    """Whether a value is a number without a unit (a number, or text that reads as one)."""
+    if isinstance(value, str):
+        try:
+            float(value)
+        except ValueError:
+            return False
+        return True
+    return not isinstance(value, bool)
+
+
+def _check_floor(key: str, value: Any, x: float) -> None:
+    """Refuse a positive modulus below 0.1 MPa or strength below 1 kPa (a unit left out).
+
+    Zero and negative values are left to the positivity checks (their own message).
+    """
+    modulus = key[:1] in ("E", "G")
+    floor = MODULUS_FLOOR if modulus else STRENGTH_FLOOR
+    if not 0.0 < x < floor:
+        return
+    what = ("below 0.1 MPa, far below any fibre or matrix" if modulus
+            else "below 1 kPa, far below any fibre, matrix or ply strength")
+    if _is_bare(value):
+        unit = "MPa" if not modulus or x >= 1e3 else "GPa"
+        raise InvalidMaterialError(
+            f"{key} = {x:g} Pa is {what}: a bare number is read as Pa; write '{x:g} {unit}'")
+    raise InvalidMaterialError(f"{key} = {value!r} is {x:g} Pa, {what}: check the unit")
 
 
 def _positive(obj: BaseModel, names: tuple[str, ...], why: str = "") -> None:
@@ -712,11 +748,9 @@ def material_from_dict(data: dict[str, Any], label: str = "material") -> Materia
     else:
         k = str(kind).strip().lower().replace(" ", "_")
         if k not in MATERIAL_KINDS:
-            near = difflib.get_close_matches(k, list(MATERIAL_KINDS), n=1, cutoff=0.4)
-            hint = f"; did you mean {near[0]!r}?" if near else ""
             raise InvalidMaterialError(
                 f"{label}: unknown kind {kind!r}; expected isotropic, transversely_isotropic or "
-                f"orthotropic{hint}"
+                f"orthotropic{suggest(k, MATERIAL_KINDS)}"
             )
         cls = MATERIAL_KINDS[k]
     try:

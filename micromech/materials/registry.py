@@ -22,7 +22,6 @@ Keys are compared in lower case. A key defined twice (in any two files) is an er
 
 from __future__ import annotations
 
-import difflib
 import os
 import re
 from collections.abc import Iterable, Iterator, Mapping
@@ -30,7 +29,13 @@ from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
-from micromech.errors import DataFileError, InvalidMaterialError, MicromechError, RegistryError
+from micromech.errors import (
+    DataFileError,
+    InvalidMaterialError,
+    MicromechError,
+    RegistryError,
+    suggest,
+)
 from micromech.materials.models import (
     Isotropic,
     Material,
@@ -171,10 +176,9 @@ class Registry(Mapping[str, Material]):
         """Return the stored form of a known key (lower case); raise for an unknown one."""
         k = str(key).strip().lower()
         if k not in self._materials:
-            near = difflib.get_close_matches(k, list(self._materials), n=3, cutoff=0.4)
-            hint = f"; did you mean {', '.join(repr(n) for n in near)}?" if near else ""
             raise RegistryError(
-                f"unknown material {key!r}{hint} (`micromech materials` lists the "
+                f"unknown material {key!r}{suggest(k, self._materials)} (`micromech materials` "
+                f"lists the "
                 f"{len(self._materials)} known keys)"
             )
         return k
@@ -295,10 +299,9 @@ class Registry(Mapping[str, Material]):
         allowed = set(type(base).model_fields)
         for k in overrides:
             if k not in allowed:
-                near = difflib.get_close_matches(k, sorted(allowed), n=1, cutoff=0.5)
-                hint = f"; did you mean {near[0]!r}?" if near else ""
                 raise InvalidMaterialError(
-                    f"{label}: unknown key {k!r} for {base.kind} material {key!r}{hint}"
+                    f"{label}: unknown key {k!r} for {base.kind} material {key!r}"
+                    f"{suggest(k, sorted(allowed))}"
                 )
         if "notes" not in overrides:
             overrides["notes"] = {

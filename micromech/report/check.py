@@ -37,6 +37,7 @@ __all__ = [
     "render_html",
     "render_markdown",
     "run_demo_check",
+    "verdict_footnotes",
     "verdict_rows",
     "write_check_report",
 ]
@@ -54,8 +55,30 @@ def _label(key: str | None) -> str:
     return "-" if key is None else model_label(key)
 
 
+#: Marker of a limit-analysis bound in the bound columns, explained under the table.
+LIMIT_MARK = " (LA)"
+LIMIT_FOOTNOTE = (
+    "(LA): limit-analysis bound of a strength for perfectly plastic, perfectly bonded phases "
+    "(Drucker 1966), not a rigorous bound: a strength from a brittle or damage model may "
+    "legitimately lie outside it, so a strength is at most suspect."
+)
+#: Verdict cell of a property that a load case names but its curve does not give.
+NOT_GRADED = "not graded"
+
+
+def _bound_cell(value: float | None, name: str) -> str:
+    text = format_property(value, name)
+    if value is not None and property_kind(name) == "strength":
+        text += LIMIT_MARK
+    return text
+
+
 def verdict_rows(result: Any) -> tuple[list[str], list[list[str]]]:
     """Headers and rows of the verdict table (one row per property, units in the cells).
+
+    Strength bounds carry the mark ``(LA)`` (limit analysis, see :func:`verdict_footnotes`).
+    A yield strength the curve does not give (the offset line is never crossed) has a row of
+    ``-`` with the verdict ``not graded``.
 
     Parameters
     ----------
@@ -67,6 +90,8 @@ def verdict_rows(result: Any) -> tuple[list[str], list[list[str]]]:
     (list of str, list of list of str)
         Headers and rows.
     """
+    from micromech.rve.check import property_order
+
     rows = []
     for name, p in result.properties.items():
         best = p.best_estimate
@@ -74,9 +99,34 @@ def verdict_rows(result: Any) -> tuple[list[str], list[list[str]]]:
                     else f"{format_property(best, name)} ({_label(p.best_model)})")
         band = ("-" if p.band is None
                 else f"{format_property(p.band[0], name)} .. {format_property(p.band[1], name)}")
-        rows.append([name, format_property(p.value, name), format_property(p.lower_bound, name),
-                     format_property(p.upper_bound, name), best_txt, band, p.verdict])
+        rows.append([name, format_property(p.value, name), _bound_cell(p.lower_bound, name),
+                     _bound_cell(p.upper_bound, name), best_txt, band, p.verdict])
+    rows += [[name, "-", "-", "-", "-", "-", NOT_GRADED] for name in _not_graded(result)]
+    rows.sort(key=lambda r: property_order(r[0]))
     return list(_HEADERS), rows
+
+
+def _not_graded(result: Any) -> dict[str, str]:
+    return dict(getattr(result, "not_graded", None) or {})
+
+
+def verdict_footnotes(result: Any) -> list[str]:
+    """Return the notes under the verdict table: the limit-analysis mark, where it appears.
+
+    Parameters
+    ----------
+    result : CheckResult
+        The check.
+
+    Returns
+    -------
+    list of str
+        Sentences (empty when no strength has a bound).
+    """
+    marked = any(property_kind(n) == "strength"
+                 and (p.lower_bound is not None or p.upper_bound is not None)
+                 for n, p in result.properties.items())
+    return [LIMIT_FOOTNOTE] if marked else []
 
 
 def _curve_rows(result: Any) -> tuple[list[str], list[list[str]]]:
@@ -150,13 +200,15 @@ def format_check_text(result: Any, *, all_reasons: bool = False, width: int = 10
            f"({result.arrangement} arrangement); worst verdict: {result.worst_verdict}", ""]
     headers, rows = verdict_rows(result)
     out.append(text_table(headers, rows))
-    shown = [(n, p) for n, p in result.properties.items()
+    out += [textwrap.fill(n, width) for n in verdict_footnotes(result)]
+    shown = [(n, p.verdict, p.reasons) for n, p in result.properties.items()
              if all_reasons or p.verdict != "consistent"]
+    shown += [(n, NOT_GRADED, (why,)) for n, why in _not_graded(result).items()]
     if shown:
         out += ["", "Reasons:"]
-        for n, p in shown:
-            out.append(f"{n} ({p.verdict}):")
-            for r in p.reasons:
+        for n, verdict, reasons in shown:
+            out.append(f"{n} ({verdict}):")
+            for r in reasons:
                 out.append(textwrap.fill(r, width, initial_indent="  - ",
                                          subsequent_indent="    "))
     if result.curves:
@@ -370,11 +422,15 @@ def render_markdown(result: Any, images: Mapping[str, str] | None = None) -> str
     out = [f"# RVE check: {result.case}\n", caution,
            markdown_table(["item", "value"], _summary(result))]
     headers, rows = verdict_rows(result)
-    out += ["## Verdicts\n", markdown_table(headers, rows), "## Reasons\n"]
+    out += ["## Verdicts\n", markdown_table(headers, rows)]
+    out += [f"{n}\n" for n in verdict_footnotes(result)]
+    out.append("## Reasons\n")
     for n, p in result.properties.items():
         out.append(f"### {n}: {p.verdict}\n")
         out += [f"- {r}" for r in p.reasons]
         out.append("")
+    for n, why in _not_graded(result).items():
+        out += [f"### {n}: {NOT_GRADED}\n", f"- {why}", ""]
     if result.curves:
         out += ["## Load cases\n", markdown_table(*_curve_rows(result))]
         if "curves" in images:
@@ -410,15 +466,19 @@ def render_html(result: Any, images: Mapping[str, bytes] | None = None) -> str:
     images = images or {}
     body = [html_table(["item", "value"], _summary(result))]
     headers, rows = verdict_rows(result)
-    classes = [[None] * (len(headers) - 1) + [r[-1]] for r in rows]
+    blank: list[str | None] = [None] * (len(headers) - 1)
+    classes = [[*blank, None if r[-1] == NOT_GRADED else r[-1]] for r in rows]
     body += ["<h2>Verdicts</h2>",
              html_table(headers, rows, numeric=[False, True, True, True, True, True, False],
-                        cell_class=classes),
-             "<h2>Reasons</h2>"]
+                        cell_class=classes)]
+    body += [f"<p>{escape(n)}</p>" for n in verdict_footnotes(result)]
+    body.append("<h2>Reasons</h2>")
     for n, p in result.properties.items():
         body.append(f'<h3>{escape(n)}: <span class="{escape(p.verdict)}">'
                     f"{escape(p.verdict)}</span></h3>")
         body.append("<ul>" + "".join(f"<li>{escape(r)}</li>" for r in p.reasons) + "</ul>")
+    for n, why in _not_graded(result).items():
+        body.append(f"<h3>{escape(n)}: {NOT_GRADED}</h3><ul><li>{escape(why)}</li></ul>")
     if result.curves:
         body += ["<h2>Load cases</h2>", html_table(*_curve_rows(result))]
         if "curves" in images:

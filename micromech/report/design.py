@@ -17,6 +17,7 @@ from micromech.design.inverse import FractionInterval, SizingResult, TargetSizin
 from micromech.design.sweeps import Sweep
 from micromech.design.targets import format_value, property_unit
 from micromech.design.uncertainty import MonteCarloResult
+from micromech.report.files import check_image_path
 from micromech.report.text import text_table
 from micromech.safety import CAUTION
 
@@ -205,13 +206,20 @@ def plot_sweep(sweep: Sweep, path: str | Path) -> Path:
     sweep : Sweep
         From :func:`micromech.design.sweep_fraction`, ``sweep_angle`` or ``sweep_ply_share``.
     path : str or Path
-        PNG file to write.
+        Image file to write (``.png``, ``.svg``, ``.pdf``, ...).
 
     Returns
     -------
     Path
         The file written.
+
+    Raises
+    ------
+    InputError
+        If the suffix is not an image format of :data:`~micromech.report.files.IMAGE_FORMATS`
+        or the folder does not exist (checked before drawing).
     """
+    check_image_path(path, "plot file")
     plt = _pyplot()
     fig, ax = plt.subplots(figsize=(6.0, 4.2))
     _draw_sweep(ax, sweep)
@@ -228,7 +236,7 @@ def plot_sizing(design: Any, result: SizingResult, path: str | Path, *, points: 
     result : SizingResult
         The sizing result (targets, models, packing limit).
     path : str or Path
-        PNG file to write.
+        Image file to write (``.png``, ``.svg``, ``.pdf``, ...).
     points : int
         Fractions plotted.
 
@@ -236,7 +244,14 @@ def plot_sizing(design: Any, result: SizingResult, path: str | Path, *, points: 
     -------
     Path
         The file written.
+
+    Raises
+    ------
+    InputError
+        If the suffix is not an image format of :data:`~micromech.report.files.IMAGE_FORMATS`
+        or the folder does not exist (checked before drawing).
     """
+    check_image_path(path, "plot file")
     from micromech.design.sweeps import sweep_fraction
 
     plt = _pyplot()
@@ -270,7 +285,7 @@ def plot_histograms(result: MonteCarloResult, path: str | Path,
     result : MonteCarloResult
         Monte Carlo statistics.
     path : str or Path
-        PNG file to write.
+        Image file to write (``.png``, ``.svg``, ``.pdf``, ...).
     names : sequence of str, optional
         Outputs to plot (default: all).
 
@@ -278,7 +293,14 @@ def plot_histograms(result: MonteCarloResult, path: str | Path,
     -------
     Path
         The file written.
+
+    Raises
+    ------
+    InputError
+        If the suffix is not an image format of :data:`~micromech.report.files.IMAGE_FORMATS`
+        or the folder does not exist (checked before drawing).
     """
+    check_image_path(path, "plot file")
     plt = _pyplot()
     keys = list(names or result.outputs)
     ncol = min(len(keys), 3) or 1

@@ -6,20 +6,21 @@ same estimates over a fibre-fraction sweep with one vectorised call.
 
 from __future__ import annotations
 
+import textwrap
 from pathlib import Path
 from typing import Any
 
 import numpy as np
 
-from micromech.errors import InputError
 from micromech.homogenize.estimate import BOUND_KEYS, MODEL_KEYS, Estimates, estimate
 from micromech.homogenize.strength import CAUTION
+from micromech.report.files import IMAGE_FORMATS, check_image_path
 
 __all__ = ["estimate_table", "plot_estimates", "check_plot_path", "CAUTION", "PROPERTIES",
            "PLOT_FORMATS"]
 
-#: Image formats the plot may be written in (by file suffix).
-PLOT_FORMATS: tuple[str, ...] = ("png", "svg", "pdf")
+#: Image formats the plot may be written in (by file suffix): the one rule of every command.
+PLOT_FORMATS: tuple[str, ...] = IMAGE_FORMATS
 
 #: Rows of the table: name, label, unit, factor from SI.
 PROPERTIES: tuple[tuple[str, str, str, float], ...] = (
@@ -74,6 +75,17 @@ _SHORT = {
 _COLOURS = {"rule_of_mixtures": "tab:blue", "halpin_tsai": "tab:orange", "chamis": "tab:green",
             "cylinders": "tab:red", "mori_tanaka": "tab:purple"}
 
+#: Footnote of values in parentheses (a bound model's value that is not a bound).
+NOT_A_BOUND_NOTE = ("( ) not a bound: the value of a bound model for a constant it does not "
+                    "bound (Voigt and Reuss bound the stiffness and so the moduli, not Poisson "
+                    "ratios; Hashin-Shtrikman bounds nu12 and the CTEs only where stated in "
+                    "its source)")
+#: Why an estimate may leave the bounds.
+OUTSIDE_NOTE = ("These estimates are known approximations, not bounds: the rule of mixtures (and "
+                "its inverse), Halpin-Tsai and Chamis leave the bounds for some constants (Hill "
+                "1964: E1 and nu12 of aligned fibres differ slightly from the rule of mixtures). "
+                "The bounds are rigorous: an estimate outside them is off by at least the gap.")
+
 # Lower bounds first, estimates, then upper bounds: the table reads as a band.
 _ORDER = ("reuss", "hashin_shtrikman_lower", "rule_of_mixtures", "halpin_tsai", "chamis",
           "cylinders", "mori_tanaka", "hashin_shtrikman_upper", "voigt")
@@ -90,6 +102,47 @@ def _fmt(v: Any, factor: float) -> str:
     return f"{float(a.min()):.3g}..{float(a.max()):.3g}"
 
 
+def _cell(est: Estimates, key: str, name: str, factor: float) -> tuple[str, bool]:
+    """Format one model's constant; in parentheses when a bound model's value is no bound.
+
+    Returns the text and whether it was put in parentheses.
+    """
+    text = _fmt(est.models[key].get(name), factor)
+    if key in BOUND_KEYS and text != "-" and not est.is_bound(key, name):
+        return f"({text})", True
+    return text, False
+
+
+def _outside_lines(est: Estimates, rows: tuple[tuple[str, str, str, float], ...]) -> list[str]:
+    """One line per estimate that leaves the bounds of the table, naming constants and gaps."""
+    labels = {name: (label, unit, factor) for name, label, unit, factor in rows}
+    several = np.asarray(est.composite.volume_fraction).size > 1
+    by_model: dict[str, list[str]] = {}
+    for x in est.outside_bounds(tuple(labels)):
+        label, unit, factor = labels[x.name]
+        rel = "<" if x.side == "below" else ">"
+        at = f" at fibre fraction {x.fraction:.3g}" if several else ""
+        u = "" if unit == "-" else f" {unit}"
+        by_model.setdefault(x.model, []).append(
+            f"{label} {x.value * factor:.4g} {rel} {x.bound * factor:.4g}{u} "
+            f"({_SHORT[x.bound_model]}){at}")
+    lines: list[str] = []
+    for key, items in by_model.items():
+        line = f"  {_SHORT[key]:<7}"
+        for j, item in enumerate(items):  # whole items per line
+            text = item + (";" if j < len(items) - 1 else "")
+            if len(line) + 1 + len(text) > 96 and line.strip() != _SHORT[key]:
+                lines.append(line)
+                line = " " * 9
+            line += (" " if not line.endswith(" ") else "") + text
+        lines.append(line)
+    if lines:
+        lines = ["", "outside the bounds of this table:", *lines,
+                 *textwrap.wrap(OUTSIDE_NOTE, width=96, initial_indent="  ",
+                                subsequent_indent="  ")]
+    return lines
+
+
 def estimate_table(est: Estimates) -> str:
     """Format the estimates as a plain-text table (moduli in GPa, strengths in MPa).
 
@@ -103,8 +156,10 @@ def estimate_table(est: Estimates) -> str:
     str
         Header with fraction, inclusion and fibre orientation; property rows (for random
         orientations the in-plane and normal, or isotropic, constants); columns ordered lower
-        bounds, estimates, upper bounds; then the strength estimates, the sources, the absent
-        models, further notes and the caution.
+        bounds, estimates, upper bounds (a bound model's value that is not a bound, such as a
+        Voigt or Reuss Poisson ratio, in parentheses with a footnote); the estimates that leave
+        the bounds of the table; then the strength estimates, the sources, the absent models,
+        further notes and the caution.
     """
     comp = est.composite
     orientation = getattr(comp, "orientation", "aligned")
@@ -125,10 +180,18 @@ def estimate_table(est: Estimates) -> str:
     kinds = "".ljust(label_w) + "".join(
         ("bound" if k in BOUND_KEYS else "estimate").rjust(width) for k in keys)
     lines += [hdr, kinds, "-" * len(hdr)]
-    for name, label, unit, factor in _ROWS.get(orientation, PROPERTIES):
+    rows = _ROWS.get(orientation, PROPERTIES)
+    marked = False
+    for name, label, unit, factor in rows:
         row = f"{label} [{unit}]".ljust(label_w)
-        row += "".join(_fmt(est.models[k].get(name), factor).rjust(width) for k in keys)
+        for k in keys:
+            text, paren = _cell(est, k, name, factor)
+            marked |= paren
+            row += text.rjust(width)
         lines.append(row)
+    if marked:
+        lines += textwrap.wrap(NOT_A_BOUND_NOTE, width=96)
+    lines += _outside_lines(est, rows)
     if est.strengths:
         lines += ["", "strength".ljust(40) + "MPa".rjust(10) + "  kind".ljust(14) + "  source"]
         lines.append("-" * 96)
@@ -169,16 +232,7 @@ def check_plot_path(path: str | Path, field: str = "path") -> Path:
     InputError
         If the suffix is not a supported format or the folder does not exist.
     """
-    p = Path(path)
-    suffix = p.suffix.lower().lstrip(".")
-    if suffix not in PLOT_FORMATS:
-        raise InputError(
-            f"{field} = {str(path)!r}: the file name must end in "
-            f"{', '.join('.' + f for f in PLOT_FORMATS)} (got {'.' + suffix if suffix else 'none'})"
-        )
-    if not p.parent.is_dir():
-        raise InputError(f"{field} = {str(path)!r}: folder {str(p.parent)!r} does not exist")
-    return p
+    return check_image_path(path, field)
 
 
 def plot_estimates(

@@ -2,7 +2,13 @@
 
 Both read a :class:`~micromech.laminate.analysis.LaminateAnalysis` and compute nothing new. The
 JSON form follows DESIGN.md ("laminate"): SI units, A in N/m, B in N, D in N*m; a value that is
-infinite (a ply that never fails along the load direction) is written as ``null``.
+infinite (a ply that never fails along the load direction) is written as ``null``. Round-off
+below 1e-12 of the largest term of a matrix or vector (B of a symmetric laminate, alpha_xy of a
+balanced one, a thermal shear stress of a 0-degree ply) is written as 0.
+
+Ply numbers: the text numbers plies from 1 at the bottom; the JSON keeps the 0-based list
+position as ``index`` (also in ``critical_plies`` and the failure events) and adds the 1-based
+``ply``.
 """
 
 from __future__ import annotations
@@ -53,6 +59,17 @@ def _named(v: np.ndarray, names: tuple[str, str, str]) -> dict[str, float]:
     return {n: float(x) for n, x in zip(names, v, strict=True)}
 
 
+def _chopped(a: np.ndarray) -> np.ndarray:
+    """Return the array with round-off below 1e-12 of its largest magnitude written as 0."""
+    a = np.asarray(a, dtype=float)
+    return _chop(a, float(np.max(np.abs(a))) if a.size else 0.0)
+
+
+#: Per-ply keys that need loads; all present, null without loads.
+_PLY_STRESS_KEYS = ("point", "stress_material", "stress_laminate", "strain_material",
+                    "stress_material_thermal", "stress_material_points")
+
+
 def _report_points(analysis: LaminateAnalysis) -> np.ndarray:
     """Point (0 bottom, 1 middle, 2 top) reported for each ply.
 
@@ -95,32 +112,36 @@ def laminate_json(
         Keys case, layup, angles, thickness, A, B, D, in_plane (free to bend, from ABD^-1),
         in_plane_restrained (from A^-1, as in a periodic stack), flexural, stack_3d,
         thermal_expansion, loads, criterion, f12_star, plies, critical_plies,
-        first_ply_failure, last_ply_failure, (envelopes), notes, caution.
+        first_ply_failure, last_ply_failure, (envelopes), notes, caution. Every ply has the
+        same keys; those that need loads (point, stresses, strains) are null without loads.
     """
     lam = analysis.laminate
     plies: list[dict[str, Any]] = []
     critical = _critical_plies(analysis)
     points = _report_points(analysis) if analysis.response is not None else None
+    fields = None
+    if analysis.response is not None:
+        tot, th = analysis.response.total, analysis.response.thermal
+        fields = (_chopped(tot.stress_material), _chopped(tot.stress_laminate),
+                  _chopped(tot.strain_material), _chopped(th.stress_material))
     for i, p in enumerate(lam.plies):
         entry: dict[str, Any] = {
-            "index": i, "angle": p.angle, "thickness": p.thickness,
+            "index": i, "ply": i + 1, "angle": p.angle, "thickness": p.thickness,
             "z_bottom": float(lam.z[i]), "z_top": float(lam.z[i + 1]),
             "material": p.material.name,
         }
-        if analysis.response is not None and points is not None:
+        entry.update(dict.fromkeys(_PLY_STRESS_KEYS))
+        if fields is not None and points is not None:
             k = int(points[i])
-            tot, th = analysis.response.total, analysis.response.thermal
+            s_mat, s_lam, e_mat, s_th = fields
             entry["point"] = POINTS[k]
-            entry["stress_material"] = _named(tot.stress_material[i, k], _S_MATERIAL)
-            entry["stress_laminate"] = _named(tot.stress_laminate[i, k], ("sx", "sy", "sxy"))
-            entry["strain_material"] = _named(tot.strain_material[i, k], ("e11", "e22", "g12"))
-            entry["stress_material_thermal"] = _named(th.stress_material[i, k], _S_MATERIAL)
+            entry["stress_material"] = _named(s_mat[i, k], _S_MATERIAL)
+            entry["stress_laminate"] = _named(s_lam[i, k], ("sx", "sy", "sxy"))
+            entry["strain_material"] = _named(e_mat[i, k], ("e11", "e22", "g12"))
+            entry["stress_material_thermal"] = _named(s_th[i, k], _S_MATERIAL)
             entry["stress_material_points"] = {
-                POINTS[j]: _named(tot.stress_material[i, j], _S_MATERIAL) for j in range(3)
+                POINTS[j]: _named(s_mat[i, j], _S_MATERIAL) for j in range(3)
             }
-        else:
-            entry["point"] = None
-            entry["stress_material"] = None
         if analysis.criteria:
             crit: dict[str, Any] = {}
             for key, res in analysis.criteria.items():
@@ -148,7 +169,7 @@ def laminate_json(
         "stack_3d": analysis.stack.as_dict() if analysis.stack is not None else None,
         "thermal_expansion": (
             {k: float(v) for k, v in zip(("alpha_x", "alpha_y", "alpha_xy"),
-                                         lam.thermal_expansion()[:3], strict=True)}
+                                         _chopped(lam.thermal_expansion()[:3]), strict=True)}
             if all(p.material.has_expansion for p in lam.plies) else None
         ),
         "loads": loads,
@@ -197,8 +218,15 @@ def _at_failure(resultants: np.ndarray, factor: float) -> str:
     return _load_text(resultants)
 
 
-def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
+def _plies_text(plies: Any) -> str:
+    """Ply indices (0-based) as the 1-based numbers the text shows."""
+    return ", ".join(str(int(i) + 1) for i in plies)
+
+
+def laminate_table(analysis: LaminateAnalysis, case: str = "", ply_origin: str = "") -> str:
     """Render the laminate results as plain text (no colour codes).
+
+    Plies are numbered from 1 at the bottom.
 
     Parameters
     ----------
@@ -206,6 +234,9 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
         The results.
     case : str
         Case name for the heading.
+    ply_origin : str
+        Where the ply constants and strengths come from (see
+        :func:`micromech.laminate.ply_origin`); default: the ply material names.
 
     Returns
     -------
@@ -221,7 +252,7 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
         head += f"   [{case}]"
     out.append(head)
     names = sorted({p.material.name or "unnamed" for p in lam.plies})
-    out.append(f"Ply material: {', '.join(names)}")
+    out.append(f"Ply material: {ply_origin or ', '.join(names)}")
     out.append("Angles (deg, bottom to top): " + "/".join(f"{a:g}" for a in lam.angles))
     out.append("")
     A, B, D = _abd_chopped(analysis)
@@ -260,14 +291,14 @@ def laminate_table(analysis: LaminateAnalysis, case: str = "") -> str:
         out.append(
             f"First-ply failure ({analysis.criterion}): load factor {_fmt(e.load_factor, 0)} "
             f"-> {_at_failure(np.asarray(e.resultants), e.load_factor)}; plies "
-            f"{', '.join(map(str, e.plies))} ({', '.join(sorted(set(e.modes)))})"
+            f"{_plies_text(e.plies)} ({', '.join(sorted(set(e.modes)))})"
         )
     if analysis.sequence is not None and analysis.sequence.events:
         seq = analysis.sequence
         out.append(f"Ply discount ({seq.criterion}), thermal part held fixed:")
         out.append(f"  {'event':>5}{'load factor':>13}  plies (mode)")
         for n, e in enumerate(seq.events, 1):
-            desc = ", ".join(f"{i} ({m})" for i, m in zip(e.plies, e.modes, strict=True))
+            desc = ", ".join(f"{int(i) + 1} ({m})" for i, m in zip(e.plies, e.modes, strict=True))
             out.append(f"  {n:>5}{_fmt(e.load_factor, 13)}  {desc}")
         end = "laminate collapsed" if seq.collapsed else "remaining plies do not fail"
         out.append(f"  last-ply failure: load factor {_fmt(seq.last_ply_factor, 0)} "
@@ -300,7 +331,7 @@ def _ply_table(analysis: LaminateAnalysis) -> list[str]:
     s = _chop(s, float(np.max(np.abs(s))), 1e-9)
     for i, p in enumerate(lam.plies):
         k = int(points[i])
-        row = (f"{i:>4}{p.angle:>7g}{lam.z[i] * 1e3:>8.4g}{lam.z[i + 1] * 1e3:>8.4g}"
+        row = (f"{i + 1:>4}{p.angle:>7g}{lam.z[i] * 1e3:>8.4g}{lam.z[i + 1] * 1e3:>8.4g}"
                f"{POINTS[k]:>8}" + "".join(f"{v / 1e6:>11.4g}" for v in s[i, k]))
         if crits:
             for c in crits:
@@ -308,9 +339,11 @@ def _ply_table(analysis: LaminateAnalysis) -> list[str]:
             mode = analysis.criteria[analysis.criterion].mode[i, k]  # k: its governing point
             row += f"  {mode:<24}" + ("<<" if i in critical else "")
         out.append(row)
+    key = "plies numbered from 1 at the bottom"
     if crits:
-        out.append("R = strength ratio (load multiplier to failure; thermal part held fixed); "
-                   "<< marks the critical ply")
+        key += ("; R = strength ratio (load multiplier to failure; thermal part held fixed); "
+                "<< marks the critical ply")
+    out.append(key)
     return out
 
 

@@ -45,6 +45,7 @@ __all__ = [
     "likely_causes",
     "model_label",
     "property_kind",
+    "shear_convention",
     "size_error_reason",
 ]
 
@@ -324,7 +325,11 @@ def likely_causes(
     The order: a unit slip (ratio near a power of 1000, or 100 for percent strains), a wrong
     area or length (ratio near a ratio of the RVE's faces or edges), a sign slip, boundary
     conditions (over-constrained when too stiff, free faces when too soft), and the fibre
-    fraction that would give the value under the best estimate.
+    fraction that would give the value under the best estimate. A wrong area or length is
+    tried both ways (micromech reading another face or edge than the model used, and the
+    reverse), with the other shear convention and [rve].size entries swapped. A cause that was
+    tried and does not fit (no fibre fraction gives the value) follows the numbered causes as
+    ``Ruled out: ...``.
 
     Parameters
     ----------
@@ -346,11 +351,12 @@ def likely_causes(
     Returns
     -------
     list of str
-        Sentences, most likely cause first.
+        ``Likely cause 1: ...`` sentences, most likely first, then ``Ruled out: ...`` ones.
     """
     ctx = context or Diagnosis()
     kind = property_kind(name)
     out: list[tuple[float, str]] = []
+    ruled_out: list[str] = []
     if best_value is None or best_value == 0.0:
         return []
     with np.errstate(over="ignore", under="ignore"):
@@ -391,11 +397,13 @@ def likely_causes(
                 groups.setdefault(float(f"{f:.3g}"), []).append(text)
         ranked = sorted(groups.items(), key=lambda kv: (abs(math.log(residual / kv[0])),
                                                         len(kv[1][0])))
+        convention = (f" {shear_convention(ctx.direction)}"
+                      if len(ctx.direction) == 2 and kind in ("shear", "strength") else "")
         for f, texts in ranked[:2]:
             out.append((-5.0 + abs(math.log(residual / f)), (
                 f"A wrong area or length: the ratio {residual:.3g} to {label} is close to "
                 f"{f:.3g}, as with {'; or '.join(texts[:2])}; check [rve].size and the face "
-                f"the force acts on ({ctx.direction} load case).")))
+                f"the force acts on ({ctx.direction} load case).{convention}")))
     # 3. a sign slip
     if ratio < 0 and lo_ok <= -value <= hi_ok:
         out.append((-4.0, (
@@ -428,11 +436,11 @@ def likely_causes(
                 "size of the RVE geometry.")))
         else:
             vmax = float(np.max(np.asarray(vf_grid)))
-            out.append((3.0, (
-                f"No fibre fraction between 0 and {vmax:.3g} gives this value under "
-                f"{label}, so a wrong fraction alone cannot explain it.")))
+            ruled_out.append(
+                f"Ruled out: a wrong fibre fraction. No fibre fraction between 0 and {vmax:.3g} "
+                f"gives this value under {label}, so a wrong fraction alone cannot explain it.")
     out.sort(key=lambda t: t[0])
-    return [f"Likely cause {i + 1}: {text}" for i, (_, text) in enumerate(out)]
+    return [f"Likely cause {i + 1}: {text}" for i, (_, text) in enumerate(out)] + ruled_out
 
 
 def _positive(x: float) -> bool:
@@ -493,44 +501,113 @@ def _unit_factors(kind: str, source: str) -> list[tuple[float, str]]:
 
 
 _FACE = {"x": ("y", "z"), "y": ("x", "z"), "z": ("x", "y")}
+_PAIRS = (("x", "y"), ("x", "z"), ("y", "z"))
+
+
+def _load_geometry(d: str, L: Mapping[str, float]) -> tuple[float, float]:
+    """Return (loaded area, gauge length) of load case d as micromech reads it."""
+    if len(d) == 1:
+        a, b = _FACE[d]
+        return L[a] * L[b], L[d]
+    i, j = d[0], d[1]  # shear ij: force along i on the face normal to j, gauge length L_j
+    k = next(a for a in _AXES if a not in d)
+    return L[i] * L[k], L[j]
+
+
+def shear_convention(direction: str) -> str:
+    """Sentence stating how micromech reads a shear load case.
+
+    Parameters
+    ----------
+    direction : str
+        Shear load case ``"xy"``, ``"xz"`` or ``"yz"``.
+
+    Returns
+    -------
+    str
+        E.g. "The xy load case is read as force along x on the face normal to y (shear
+        stress = force / (Lx Lz)) and engineering shear strain = displacement along x / Ly."
+    """
+    i, j = direction[0], direction[1]
+    k = next(a for a in _AXES if a not in direction)
+    return (f"The {direction} load case is read as force along {i} on the face normal to {j} "
+            f"(shear stress = force / (L{i} L{k})) and engineering shear strain = displacement "
+            f"along {i} / L{j}.")
 
 
 def _geometry_factors(kind: str, ctx: Diagnosis) -> list[tuple[float, str]]:
-    """(factor by which the value is too large, what went wrong) for swapped faces/edges."""
+    """(factor by which the value is too large, what went wrong) for swapped faces/edges.
+
+    Both directions are tried: micromech reading the history with another face or edge than
+    the one the model used (the factor f), and the history made with another face or edge
+    than the one micromech reads (1 / f); also the other shear convention and [rve].size with
+    two entries swapped. Factors within 1 % of 1 are left out.
+    """
     assert ctx.size is not None and ctx.direction is not None
     L = dict(zip(_AXES, ctx.size, strict=True))
     d = ctx.direction
-
-    def area(face: str) -> float:
-        a, b = _FACE[face]
-        return L[a] * L[b]
-
     out: list[tuple[float, str]] = []
+
+    def add(f: float, text: str) -> None:
+        if _positive(f) and abs(math.log(f)) > 0.01:
+            out.append((f, text))
+
+    def swapped(a: str, b: str) -> dict[str, float]:
+        return {**L, a: L[b], b: L[a]}
+
+    def swap_text(a: str, b: str) -> str:
+        return (f"[rve].size with the {a} and {b} entries swapped (declared {a} = "
+                f"{format_si(L[a], 'length')}, {b} = {format_si(L[b], 'length')})")
+
     if kind == "poisson":
         if ctx.lateral is None or len(d) != 1:
             return []
         lat = ctx.lateral
+        for a, b in _PAIRS:
+            if L[a] != L[b]:
+                S = swapped(a, b)
+                # nu = (u_lat / L_lat) / (u_ax / L_ax), read with the declared edges
+                add((S[lat] * L[d]) / (L[lat] * S[d]), swap_text(a, b))
         for ax_used, lat_used in product(_AXES, _AXES):
             if (ax_used, lat_used) == (d, lat):
                 continue
-            # nu = (u_lat / L_lat) / (u_ax / L_ax)
             f = (L[lat] * L[ax_used]) / (L[lat_used] * L[d])
-            if _positive(f) and abs(math.log(f)) > 0.01:
-                out.append((f, (
-                    f"the lateral strain taken over the {lat_used} edge and the axial "
-                    f"strain over the {ax_used} edge")))
+            add(f, (f"the lateral strain taken over the {lat_used} edge and the axial "
+                    f"strain over the {ax_used} edge"))
+            add(1.0 / f, (f"displacements in the history that belong to other edges (the "
+                          f"lateral one to the {lat_used} edge, the axial one to the {ax_used} "
+                          f"edge) than the {lat} and {d} edges micromech divides them by"))
         return out
+    area, gauge = _load_geometry(d, L)
+    strength = kind == "strength"
+    if len(d) == 2:
+        i, j = d[0], d[1]
+        k = next(a for a in _AXES if a not in d)
+        # the other convention: force along j on the face normal to i, displacement along j
+        # over L_i
+        f = (L[j] / L[i]) if strength else (L[j] / L[i]) ** 2
+        add(f, (f"the history written in the other shear convention (force along {j} on the "
+                f"face normal to {i}, area L{j} L{k}"
+                + ("" if strength else f"; displacement along {j} over L{i}") + ")"))
+    for a, b in _PAIRS:
+        if L[a] != L[b]:
+            a_s, g_s = _load_geometry(d, swapped(a, b))
+            add((a_s / area) if strength else (a_s * gauge) / (area * g_s), swap_text(a, b))
     if len(d) == 1:
         face_true, len_true = d, d
     else:  # shear ij: force along i on the face normal to j, gauge length L_j
         face_true, len_true = d[1], d[1]
-    lengths = (_AXES if kind != "strength" else (len_true,))
+
+    def face_area(face: str) -> float:
+        a, b = _FACE[face]
+        return L[a] * L[b]
+
+    lengths = (_AXES if not strength else (len_true,))
+    reverse: list[tuple[float, str]] = []
     for face_used, len_used in product(_AXES, lengths):
         if (face_used, len_used) == (face_true, len_true):
             continue
-        f = (area(face_true) * L[len_used]) / (area(face_used) * L[len_true])
-        if not _positive(f) or abs(math.log(f)) < 0.01:
-            continue
+        f = (face_area(face_true) * L[len_used]) / (face_area(face_used) * L[len_true])
         parts = []
         if face_used != face_true:
             parts.append(f"the stress computed with the area of the {face_used} face instead of "
@@ -538,7 +615,17 @@ def _geometry_factors(kind: str, ctx: Diagnosis) -> list[tuple[float, str]]:
         if len_used != len_true:
             parts.append(f"the strain computed over the {len_used} edge instead of the "
                          f"{len_true} edge")
-        out.append((f, " and ".join(parts)))
+        add(f, " and ".join(parts))
+        if len(d) == 2 and face_used == len_used == d[0]:
+            continue  # the other shear convention, named above
+        made = [f"force on the {face_used} face"]
+        if not strength:
+            made.append(f"displacement over the {len_used} edge")
+        read = f"the {face_true} face" + ("" if strength else f" and the {len_true} edge")
+        reverse.append((1.0 / f, (f"the history made with {' and '.join(made)}, while "
+                                  f"micromech reads the {d} load case with {read}")))
+    for f, text in reverse:  # after the direct ones: a shared factor names those first
+        add(f, text)
     return out
 
 

@@ -43,6 +43,7 @@ References
 
 from __future__ import annotations
 
+import difflib
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
 from pathlib import Path
@@ -61,6 +62,7 @@ from micromech.rve.causes import (
     Diagnosis,
     consistency_reasons,
     fit_size_error,
+    format_property,
     fraction_for_value,
     likely_causes,
     model_label,
@@ -71,6 +73,8 @@ from micromech.rve.causes import (
 from micromech.rve.causes import constant_of as _const
 from micromech.rve.causes import direction_of as _direction_of
 from micromech.rve.tolerances import (
+    BOUND_SLACK,
+    PROPERTY_NAMES,
     Band,
     corner_plies,
     fibre_band,
@@ -103,6 +107,7 @@ __all__ = [
     "likely_causes",
     "model_label",
     "property_name",
+    "property_order",
     "worst_verdict",
 ]
 
@@ -247,7 +252,7 @@ def expected_properties(case: Any, names: Sequence[str]) -> dict[str, Expectatio
     angles = _layup_angles(case) if stack else (0.0,)
     est = dict(estimate(comp, strengths=False))
     # the best estimate over a grid of fractions, for solving the fraction of a value
-    top = min(comp.packing_limit, 1.0 - float(comp.void_fraction)) * 0.98
+    top = min(comp.packing_limit, 1.0 - float(comp.void_fraction))
     grid = np.linspace(0.0, top, _GRID_POINTS)
     mt_grid = mori_tanaka(comp.fibre, comp.matrix, grid, comp.inclusion, comp.aspect_ratio,
                           void_fraction=comp.void_fraction)
@@ -391,6 +396,10 @@ class CheckResult:
         ``"load_cases"`` (fitted to averaged stresses and strains) or ``"matrix"`` (given).
     caution : str
         The caution every output carries.
+    not_graded : Mapping of str to str
+        Properties a load case names but its curve does not give (a yield strength when the
+        curve never crosses the offset line), with the reason; shown in the tables, not
+        graded and not in the JSON ``properties``.
     """
 
     case: str
@@ -405,6 +414,7 @@ class CheckResult:
     stiffness: Any = None
     stiffness_source: str | None = None
     caution: str = CAUTION
+    not_graded: Mapping[str, str] = field(default_factory=dict)
 
     @property
     def worst_verdict(self) -> str:
@@ -625,13 +635,20 @@ def check_case(
             notes.append("The symmetric part of the RVE stiffness is not positive definite: no "
                          "stable material has it; check the units and the load cases.")
 
+    # yields the curves do not give (the offset line is never crossed): shown, not graded
+    not_graded = {f"yield_strength_{d}": c.metrics.yield_note
+                  for d, c in curves.items() if c.metrics.yield_strength is None}
+    simulated = dict(values)
     wanted = case.check.get("properties")
-    if wanted:
+    if wanted is not None:
+        _check_selection(wanted, values, not_graded, case, where)
         values = {k: v for k, v in values.items() if k in wanted}
+        not_graded = {k: v for k, v in not_graded.items() if k in wanted}
 
     # 3. grade
     elastic = [n for n in values if property_kind(n) != "strength"]
-    expect = expected_properties(case, elastic)
+    moduli = [m for n in elastic if property_kind(n) == "poisson" for m in _moduli_of(arch, n)]
+    expect = expected_properties(case, list(dict.fromkeys([*elastic, *moduli])))
     vf = float(case.composite.volume_fraction)
     keep = case.check.get("models")
     results: dict[str, PropertyCheck] = {}
@@ -664,14 +681,15 @@ def check_case(
         )
 
     # 4. cross-checks
+    _poisson_stability(results, simulated, expect, arch)
     _cross_checks(results, values, case, arch, size, contexts, notes)
-    order = {n: i for i, n in enumerate(_ORDER)}
-    ordered = dict(sorted(results.items(), key=lambda kv: order.get(kv[0], len(order))))
+    ordered = dict(sorted(results.items(), key=lambda kv: property_order(kv[0])))
     return CheckResult(
         case=case.name, path=case.path, architecture=arch, volume_fraction=vf,
         arrangement=case.composite.arrangement, properties=ordered, curves=curves,
         notes=tuple(notes), inputs=tuple(inputs), stiffness=eff,
         stiffness_source=eff_source,
+        not_graded=dict(sorted(not_graded.items(), key=lambda kv: property_order(kv[0]))),
     )
 
 
@@ -692,6 +710,192 @@ _ORDER = (
     *_UD_ALL, *_STACK_ALL,
     *(f"yield_strength_{d}" for d in _VOIGT), *(f"ultimate_strength_{d}" for d in _VOIGT),
 )
+_ORDER_INDEX = {n: i for i, n in enumerate(_ORDER)}
+
+
+def property_order(name: str) -> int:
+    """Sort key of a property name in tables: moduli, Poisson ratios, yields, strengths.
+
+    Parameters
+    ----------
+    name : str
+        Property name.
+
+    Returns
+    -------
+    int
+        Its place (unknown names last).
+    """
+    return _ORDER_INDEX.get(name, len(_ORDER_INDEX))
+
+
+# ------------------------------------------------------------------------------------------
+# the [check] properties list
+
+
+def _other_family(name: str, arch: str) -> str | None:
+    """Return the name this cell gives a property named in the other family's axes."""
+    stack = arch in _STACK_ARCH
+    if name in (_UD_ALL if stack else _STACK_ALL):
+        d, lat = _direction_of(name)
+        if d is not None:
+            return property_name(arch, d, lat)
+    return None
+
+
+def _suggest(name: str) -> list[str]:
+    """Return the valid names nearest to a misspelt one.
+
+    The same letters in another case come first, then the shear modulus with its indices in
+    the other order, then the closest by spelling.
+    """
+    near = [n for n in PROPERTY_NAMES if n.lower() == name.lower()]
+    if len(name) == 3 and name[0] in "Gg":
+        near += [n for n in PROPERTY_NAMES if n == f"G{name[2]}{name[1]}"]
+    if near:
+        return near
+    lower = {n.lower(): n for n in PROPERTY_NAMES}
+    near += [lower[m] for m in difflib.get_close_matches(name.lower(), list(lower), n=3,
+                                                          cutoff=0.5)]
+    return list(dict.fromkeys(near))[:3]
+
+
+def _source_of(name: str, arch: str) -> str:
+    """Which [rve] entry gives a property (for messages)."""
+    d, lat = _direction_of(name)
+    if property_kind(name) == "strength":
+        return (f"a [[rve.load_case]] history with direction = {d!r} (averaged load cases and "
+                "[rve.stiffness] give no strengths)")
+    if lat is not None:
+        return (f"a [[rve.load_case]] history with direction = {d!r} and a lateral column in "
+                f"{lat}, or averaged load cases / [rve.stiffness] (all nine constants)")
+    return (f"a [[rve.load_case]] with direction = {d!r}, or averaged load cases / "
+            "[rve.stiffness] (all nine constants)")
+
+
+def _check_selection(
+    wanted: Sequence[str], values: Mapping[str, float], not_graded: Mapping[str, str],
+    case: Any, where: str,
+) -> None:
+    """Validate ``[check] properties`` against the names this case's results give.
+
+    Raises
+    ------
+    InputError
+        For a name that is no property name (the nearest valid names are suggested).
+    CaseFileError
+        For an empty list, a name this case's load cases do not give (saying which load case
+        would), or a list that selects nothing to grade.
+    """
+    arch = case.rve.architecture
+    if not wanted:
+        raise CaseFileError(
+            f"{where}: [check] properties = [] selects nothing to grade; list the names to "
+            "grade (e.g. [\"E1\", \"nu12\"]) or leave the key out to grade everything")
+    unknown = []
+    for n in wanted:
+        if n not in PROPERTY_NAMES:
+            near = _suggest(n)
+            hint = f" (did you mean {' or '.join(repr(x) for x in near)}?)" if near else ""
+            unknown.append(f"{n!r}{hint}")
+    if unknown:
+        raise InputError(
+            f"{where}: [check] properties: {'; '.join(unknown)} "
+            f"{'is not a property name' if len(unknown) == 1 else 'are not property names'}; "
+            f"the names are {', '.join(_UD_ALL)} for unidirectional and particulate cells, "
+            f"{', '.join(_STACK_ALL)} for crossply and stack cells, and yield_strength_x, "
+            "ultimate_strength_xy ... per load case")
+    have = sorted(values, key=property_order)
+    for n in wanted:
+        if n in values or n in not_graded:
+            continue
+        other = _other_family(n, arch)
+        if other is not None:
+            why = (f"{arch} cells name this property {other!r} ("
+                   + ("Ex ... for crossply and stack cells" if arch in _STACK_ARCH else
+                      "E1 ... with x = 1 the fibre axis for unidirectional and particulate "
+                      "cells") + ")")
+        else:
+            why = f"it needs {_source_of(n, arch)}, which this case does not have"
+        raise CaseFileError(
+            f"{where}: [check] properties: {n!r} is not given by this case's [rve] results: "
+            f"{why}; the results give {', '.join(have) or 'nothing'}")
+    if not any(n in values for n in wanted):
+        reasons = "; ".join(f"{k}: {v}" for k, v in not_graded.items() if k in wanted)
+        raise CaseFileError(
+            f"{where}: [check] properties = {list(wanted)!r} selects nothing that can be "
+            f"graded ({reasons}); add properties the results give: {', '.join(have)}")
+
+
+# ------------------------------------------------------------------------------------------
+# the stability of the Poisson ratios
+
+
+def _moduli_of(arch: str, name: str) -> tuple[str, str]:
+    """Return the Young's moduli E_i, E_j of nu_ij (load axis i, lateral axis j)."""
+    d, lat = _direction_of(name)
+    assert d is not None and lat is not None
+    return property_name(arch, d), property_name(arch, lat)
+
+
+def _poisson_stability(
+    results: dict[str, PropertyCheck], simulated: Mapping[str, float],
+    expect: Mapping[str, Expectation], arch: str,
+) -> None:
+    """Grade every Poisson ratio against the stability limit nu_ij^2 < E_i / E_j.
+
+    The compliance of a stable elastic solid is positive definite, so each 2x2 minor
+    S_ii S_jj - S_ij^2 > 0, i.e. nu_ij^2 < E_i / E_j (Lempriere 1968, AIAA J. 6, 2226, from
+    memory). The moduli are the simulated ones where the case gives them and they lie inside
+    their own rigorous bounds, else the best estimates (a modulus that violates its bounds is
+    graded on its own and does not condemn the Poisson ratio as well). Outside the limit
+    (beyond the bound allowance) the ratio is ``violates_bounds``.
+    """
+    for name, r in list(results.items()):
+        if property_kind(name) != "poisson":
+            continue
+        ei, ej = _moduli_of(arch, name)
+        mods: list[tuple[float | None, str]] = []
+        for m in (ei, ej):
+            e = expect.get(m)
+            best = None if e is None else e.estimates.get(e.best)
+            if m in simulated and (e is None or _within_bounds(simulated[m], e)):
+                mods.append((simulated[m], "simulated"))
+            elif m in simulated:
+                mods.append((best, "best estimate; the simulated value violates its bounds"))
+            else:
+                mods.append((best, "best estimate"))
+        (vi, si), (vj, sj) = mods
+        if vi is None or vj is None or not (vi > 0.0 and vj > 0.0):
+            continue
+        limit = float(np.sqrt(vi / vj))
+        if abs(r.value) <= limit * (1.0 + BOUND_SLACK):
+            continue
+        text = (
+            f"{name} = {r.value:.4g} breaks the stability limit |{name}| < sqrt({ei} / {ej}) = "
+            f"{limit:.4g} ({ei} = {format_property(vi, ei)}, {si}; {ej} = "
+            f"{format_property(vj, ej)}, {sj}): the compliance of a stable elastic solid is "
+            f"positive definite, which requires {name}^2 < {ei} / {ej} (Lempriere 1968, from "
+            "memory), so no material has this set of constants."
+        )
+        off = [m for m in (ei, ej) if m in results and results[m].verdict != "consistent"]
+        if off:
+            text += (f" {' and '.join(off)} {'is' if len(off) == 1 else 'are'} "
+                     f"{results[off[0]].verdict} as well: look there first.")
+        elif r.verdict == "consistent":
+            text += (f" {name} itself lies within its expected band: look at {ei} and {ej} "
+                     "first.")
+        else:
+            text += (" A unit mismatch between the lateral and the axial displacement (or "
+                     "strain) columns is the likely cause.")
+        kept = () if r.verdict == "consistent" else r.reasons  # "within the band" is moot
+        results[name] = replace(r, verdict="violates_bounds", reasons=(text, *kept))
+
+
+def _within_bounds(value: float, e: Expectation) -> bool:
+    """Whether a modulus lies inside its rigorous bounds (with the bound allowance)."""
+    return ((e.lower_bound is None or value >= e.lower_bound * (1.0 - BOUND_SLACK))
+            and (e.upper_bound is None or value <= e.upper_bound * (1.0 + BOUND_SLACK)))
 
 
 def _tolerance_for(name: str, tol: Mapping[str, float], arch: str) -> float | None:

@@ -15,12 +15,15 @@ Every rule works on the *sign-normalised loading envelope*:
    unloading.
 3. **Noise level.** The noise sigma of the stress is read from the second differences of the
    envelope stresses, d2 (robust: 1.4826 x median absolute deviation / sqrt(6), since
-   var(d2) = 6 sigma^2 for white noise). Smooth curves give a sigma near zero. The noise of the
-   strain is read alike from its fourth differences (var(d4) = 70 sigma^2; they leave the smooth
-   trend of an unevenly stepped record out) and counts only when above 2 % of the median strain
-   step; it enters as stress noise times the initial slope (the slope over the first tenth of
-   the points), and then the modulus is fitted to the smoothed curve, since least squares on
-   noisy strains would underestimate the slope.
+   var(d2) = 6 sigma^2 for white noise). Smooth curves give a sigma near zero, though their
+   curvature adds to d2. A curve counts as noisy (and is smoothed) only when the noise is
+   above 1e-4 of the stress range and the fourth differences (var(d4) = 70 sigma^2, almost
+   free of curvature) confirm at least half of the d2 estimate, or when the strain is noisy.
+   The noise of the strain is read alike from its fourth differences (var(d4) = 70 sigma^2;
+   they leave the smooth trend of an unevenly stepped record out) and counts only when above
+   2 % of the median strain step; it enters as stress noise times the initial slope (the slope
+   over the first tenth of the points), and then the modulus is fitted to the smoothed curve,
+   since least squares on noisy strains would underestimate the slope.
 
 Linear range (automatic)
 ------------------------
@@ -43,10 +46,9 @@ Offset yield
 ------------
 The offset line is the fit line moved along the strain axis by ``offset`` (default 0.002, the
 usual 0.2 % offset: common practice, no source). The yield point is the first crossing of the
-curve below that line that persists (for noisy curves, with a noise sigma above 1e-6 of the
-peak stress and 50 points or more, the curve -- stress and strain alike -- is first smoothed by a
-centred moving average over about 1 % of the points, 5 to 501, and the crossing must hold for
-as many points),
+curve below that line that persists (for noisy curves of 50 points or more, see 3, the curve --
+stress and strain alike -- is first smoothed by a centred moving average over about 1 % of the
+points, 5 to 501, and the crossing must hold for as many points),
 interpolated linearly between the two points that bracket it. When the curve never falls below
 the line before its ultimate point, the yield strength is None and the note says why.
 
@@ -95,7 +97,9 @@ _TAIL = 0.25  # fraction of a window used for its end tangent
 _Z = 3.0  # noise standard errors a deviation must exceed
 _RUN = 5  # consecutive non-linear windows that end the linear range
 _FAIL_DROP = 0.01  # stress drop after the ultimate that shows failure
-_NOISE_FLOOR = 1e-6  # relative noise below which no smoothing is done
+_NOISE_FLOOR = 1e-6  # relative strain noise below which the strain counts as clean
+_STRESS_NOISE_FLOOR = 1e-4  # stress noise (of the stress range) below which nothing is smoothed
+_CURVATURE_SHARE = 0.5  # d4 / d2 noise estimates below this: the d2 estimate is curvature
 _MIN_SMOOTH_POINTS = 50
 _ENV_Z = 6.0  # strain noise sigmas a drop must exceed to count as unloading
 _STEP_NOISE = 0.02  # strain noise below this fraction of the median step is ignored
@@ -355,11 +359,13 @@ def curve_metrics(
     # 3. noise and smoothing: stress noise, plus strain noise times the initial slope
     sigma_v = _noise(v)
     sigma = sigma_v
+    noisy = _stress_is_noisy(v, sigma_v)
     if sigma_x > 0.0:
         sigma = float(np.hypot(sigma_v, _initial_slope(u, v) * sigma_x * xscale / xspan))
         notes.append(f"noisy strain (sigma {sigma_x * xscale:.3g})")
+        noisy = True
     width = 1
-    if sigma > _NOISE_FLOOR and m >= _MIN_SMOOTH_POINTS:
+    if noisy and m >= _MIN_SMOOTH_POINTS:
         width = _smooth_width(m)
         notes.append(f"noisy curve (sigma {sigma * peak:.3g} Pa): smoothed over {width} points")
     vs = _moving_average(v, width) if width > 1 else v
@@ -502,6 +508,22 @@ def _noise(v: Array) -> float:
     d2 = np.diff(v, 2)
     mad = np.median(np.abs(d2 - np.median(d2)))
     return float(1.4826 * mad / np.sqrt(6.0))
+
+
+def _stress_is_noisy(v: Array, sigma: float) -> bool:
+    """Whether the stress record carries noise worth smoothing, not just curvature.
+
+    The second-difference estimate ``sigma`` also picks up the curvature of a smooth curve
+    (d2 = h^2 times the second derivative). Noise counts when it is above 1e-4 of the stress
+    range and the fourth-difference estimate (var(d4) = 70 sigma^2 for white noise; curvature
+    adds only h^4 times the fourth derivative) confirms at least half of it.
+    """
+    if v.size < 8 or not sigma > 0.0:
+        return False
+    d4 = np.diff(v, 4)
+    sigma4 = float(1.4826 * np.median(np.abs(d4 - np.median(d4))) / np.sqrt(70.0))
+    span = float(np.max(v) - np.min(v))
+    return min(sigma, sigma4) > _STRESS_NOISE_FLOOR * span and sigma4 >= _CURVATURE_SHARE * sigma
 
 
 def _strain_noise(x: Array) -> float:

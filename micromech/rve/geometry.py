@@ -6,6 +6,11 @@ fraction, nearest-neighbour statistics and the record needed to reproduce it (me
 :meth:`FibreArrangement.to_csv` and :meth:`FibreArrangement.to_json` write the centres for a
 mesher, together with the periodic images of the fibres that cut the cell faces.
 
+Axes: the cell is made in its own cross-section plane, with the fibres along the third axis.
+The writers name that plane by the fibre axis: ``fibre_axis="z"`` (default) writes the centres
+as x, y; ``fibre_axis="x"`` writes them as y, z, the convention of a unidirectional
+``micromech check`` cell (x = 1 the fibre axis). See :data:`FIBRE_AXES`.
+
 The statistics and the RVE-size guidance are in :mod:`micromech.rve.cellstats`, the packing
 numerics in :mod:`micromech.rve.packing` and the file writing and terminal summary in
 :mod:`micromech.rve.cellio`; their public names are re-exported here.
@@ -64,9 +69,11 @@ from micromech.errors import FractionError, InputError
 from micromech.rve import packing
 from micromech.rve.cellio import (
     CAUTION,
+    FIBRE_AXES,
     arrangement_text,
     csv_text,
     plot_arrangement,
+    section_axes,
     write_atomic,
 )
 from micromech.rve.cellstats import (
@@ -89,6 +96,7 @@ __all__ = [
     "MAX_RANDOM_FIBRES",
     "MAX_REGULAR_FIBRES",
     "CAUTION",
+    "FIBRE_AXES",
     "FibreArrangement",
     "NeighbourStats",
     "RveGuidance",
@@ -101,6 +109,7 @@ __all__ = [
     "guidance_fibres",
     "arrangement_text",
     "plot_arrangement",
+    "section_axes",
 ]
 
 Array = NDArray[np.float64]
@@ -229,23 +238,39 @@ class FibreArrangement:
         image = np.concatenate([np.zeros(n, dtype=bool), np.ones(parent.size, dtype=bool)])
         return centres, fibre, image
 
-    def as_dict(self) -> dict[str, Any]:
+    def as_dict(self, fibre_axis: str = "z") -> dict[str, Any]:
         """Return the arrangement as a JSON-ready dict, SI units (m).
+
+        Parameters
+        ----------
+        fibre_axis : {"z", "x"}
+            Axis the fibres run along: ``"z"`` writes the centres as ``x``, ``y``; ``"x"`` as
+            ``y``, ``z`` (a unidirectional check cell). See :data:`FIBRE_AXES`.
 
         Returns
         -------
         dict
-            Keys ``method``, ``seed``, ``diameter``, ``radius``, ``cell_size`` ``[Lx, Ly]``,
+            Keys ``method``, ``seed``, ``fibre_axis``, ``section_axes`` (the two centre keys),
+            ``diameter``, ``radius``, ``cell_size`` (the edges along the two section axes),
             ``volume_fraction``, ``target_fraction``, ``min_gap``, ``n_fibres``, ``n_images``,
-            ``circles`` (list of ``{"fibre", "x", "y", "radius", "image"}``: the fibres, then
-            the images of the fibres that cut the faces), ``stats`` (in diameters),
-            ``rve_size`` (see :func:`rve_size_guidance`), ``details``, ``caution``.
+            ``circles`` (list of ``{"fibre", "x", "y", "radius", "image"}``, or ``"y", "z"``
+            for fibre axis x: the fibres, then the images of the fibres that cut the faces),
+            ``stats`` (in diameters), ``rve_size`` (see :func:`rve_size_guidance`),
+            ``details``, ``caution``.
+
+        Raises
+        ------
+        InputError
+            For an unknown fibre axis.
         """
+        a_name, b_name = section_axes(fibre_axis)
         centres, fibre, image = self.circles()
         r = self.radius
         return {
             "method": self.method,
             "seed": self.seed,
+            "fibre_axis": fibre_axis,
+            "section_axes": [a_name, b_name],
             "diameter": self.diameter,
             "radius": r,
             "cell_size": [self.cell_size[0], self.cell_size[1]],
@@ -255,7 +280,8 @@ class FibreArrangement:
             "n_fibres": self.n_fibres,
             "n_images": int(image.sum()),
             "circles": [
-                {"fibre": int(f), "x": float(c[0]), "y": float(c[1]), "radius": r, "image": bool(m)}
+                {"fibre": int(f), a_name: float(c[0]), b_name: float(c[1]), "radius": r,
+                 "image": bool(m)}
                 for c, f, m in zip(centres, fibre, image, strict=True)
             ],
             "stats": self.stats.as_dict(),
@@ -264,28 +290,33 @@ class FibreArrangement:
             "caution": CAUTION,
         }
 
-    def to_json(self, path: str | os.PathLike[str]) -> Path:
+    def to_json(self, path: str | os.PathLike[str], *, fibre_axis: str = "z") -> Path:
         """Write :meth:`as_dict` as JSON (SI units), replacing an existing file atomically.
 
         Parameters
         ----------
         path : str or path-like
             Output file.
+        fibre_axis : {"z", "x"}
+            Axis the fibres run along (see :meth:`as_dict`).
 
         Returns
         -------
         Path
             The path written.
         """
-        text = json.dumps(self.as_dict(), indent=2, allow_nan=False) + "\n"
+        text = json.dumps(self.as_dict(fibre_axis), indent=2, allow_nan=False) + "\n"
         return write_atomic(Path(path), text)
 
-    def to_csv(self, path: str | os.PathLike[str], *, unit: str = "um") -> Path:
+    def to_csv(
+        self, path: str | os.PathLike[str], *, unit: str = "um", fibre_axis: str = "z"
+    ) -> Path:
         """Write the circles as CSV for a mesher, replacing an existing file atomically.
 
-        ``#`` lines describe the cell (method, seed, size, fraction, caution); then columns
-        ``fibre, x_<unit>, y_<unit>, radius_<unit>, image``, the fibres first, then the images
-        of the fibres that cut the faces (see :func:`micromech.rve.cellio.csv_text`).
+        ``#`` lines describe the cell (axes, method, seed, size, fraction, caution); then
+        columns ``fibre, x_<unit>, y_<unit>, radius_<unit>, image`` (``y_``, ``z_`` for fibre
+        axis x), the fibres first, then the images of the fibres that cut the faces (see
+        :func:`micromech.rve.cellio.csv_text`).
 
         Parameters
         ----------
@@ -293,13 +324,15 @@ class FibreArrangement:
             Output file.
         unit : str
             Length unit of the coordinates (``"um"``, ``"mm"``, ``"m"``, ...).
+        fibre_axis : {"z", "x"}
+            Axis the fibres run along (see :data:`FIBRE_AXES`).
 
         Returns
         -------
         Path
             The path written.
         """
-        return write_atomic(Path(path), csv_text(self, unit))
+        return write_atomic(Path(path), csv_text(self, unit, fibre_axis))
 
 
 # --- limits and validation ------------------------------------------------------------------

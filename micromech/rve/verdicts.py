@@ -14,7 +14,9 @@ Each simulated property gets one of three verdicts:
     hold), outside the expected band around the best estimate (per property and per fraction,
     see :mod:`micromech.rve.tolerances`), or failing a consistency check (reciprocity
     nu_ij / E_i = nu_ji / E_j, equal in-plane moduli of a balanced cross-ply, yield below the
-    matrix yield, strengths outside the limit-analysis bounds).
+    matrix yield, strengths outside the limit-analysis bounds for perfectly plastic phases,
+    which a brittle or damage model may legitimately leave). The expected band is clipped to
+    the rigorous bounds.
 ``consistent``
     Everything else.
 
@@ -56,6 +58,7 @@ from micromech.safety import CAUTION
 __all__ = [
     "CAUTION",
     "DEFAULT_TOLERANCE",
+    "LIMIT_ANALYSIS_NOTE",
     "VERDICTS",
     "PropertyCheck",
     "grade_property",
@@ -224,7 +227,9 @@ def grade_property(
         Key of the best estimate in ``estimates`` (default ``"mori_tanaka"``).
     band : Band or (float, float), optional
         Expected band (default per property and fraction from
-        :mod:`micromech.rve.tolerances`); outside it the verdict is ``suspect``.
+        :mod:`micromech.rve.tolerances`); outside it the verdict is ``suspect``. Any band
+        (also one from ``tolerance``) is clipped to rigorous bounds; a value on a clipped end
+        keeps the ``bound_slack`` allowance.
     tolerance : float or (float, float), optional
         Relative tolerance around the best estimate; replaces ``band`` when given.
     context : Diagnosis, optional
@@ -283,6 +288,14 @@ def grade_property(
     else:
         bnd = None
     band_t = None if bnd is None else (float(bnd.low), float(bnd.high))
+    # the band never reaches beyond a rigorous bound: clip it, and let a value on the clipped
+    # end keep the bound's allowance for round-off and curve-fit scatter
+    band_ok = band_t
+    if band_t is not None and bnd is not None and bounds_rigorous:
+        clipped, band_t, band_ok = _clip_band(band_t, lb, ub, bound_slack)
+        if clipped:
+            bnd = Band(np.asarray(band_t[0]), np.asarray(band_t[1]),
+                       basis=f"{bnd.basis}; clipped to the {clipped}")
     hs = None
     if hs_band is not None:
         h0, h1 = _finite(hs_band[0]), _finite(hs_band[1])
@@ -309,14 +322,15 @@ def grade_property(
             )
         else:
             reasons.append(
-                f"{name} = {_fmt(v, name)} is {word} the {side} bound {_fmt(b, name)} "
-                f"({_bound_name(kind, side)}: {_LIMIT_TEXT[side]})."
+                f"{name} = {_fmt(v, name)} is {word} the {_LIMIT_NAME[side]} {_fmt(b, name)} "
+                f"({_LIMIT_TEXT[side]}). {LIMIT_ANALYSIS_NOTE}"
             )
     else:
         for b, side in ((lb, "lower"), (ub, "upper")):
             if b is not None and ((side == "lower" and v < b) or (side == "upper" and v > b)):
+                which = f"{side} bound" if bounds_rigorous else _LIMIT_NAME[side]
                 slack_note = (
-                    f"{name} lies {abs(100 * (v / b - 1)):.2g} % beyond the {side} bound "
+                    f"{name} lies {abs(100 * (v / b - 1)):.2g} % beyond the {which} "
                     f"{_fmt(b, name)}, within the {100 * bound_slack:.2g} % allowed for "
                     "round-off and curve-fit scatter."
                 )
@@ -331,7 +345,8 @@ def grade_property(
                 "of perfectly bonded phases, so the model or its post-processing departs from "
                 "the declared composite."
             )
-        if band_t is not None and bnd is not None and not band_t[0] <= v <= band_t[1]:
+        if (band_t is not None and band_ok is not None and bnd is not None
+                and not band_ok[0] <= v <= band_ok[1]):
             verdict = "suspect"
             where = "below" if v < band_t[0] else "above"
             reasons.append(
@@ -350,6 +365,15 @@ def grade_property(
                 f"{_fmt(band_t[0], name)} .. {_fmt(band_t[1], name)}"
                 f"{', ' + ref_txt if ref_txt else ''} (band: "
                 f"{bnd.basis})."
+            )
+        elif (lb is not None or ub is not None) and not bounds_rigorous:
+            within = (f"within the limit-analysis bounds {_fmt(lb, name)} .. {_fmt(ub, name)}"
+                      if lb is not None and ub is not None else
+                      f"above the {_LIMIT_NAME['lower']} {_fmt(lb, name)}" if ub is None else
+                      f"below the {_LIMIT_NAME['upper']} {_fmt(ub, name)}")
+            reasons.append(
+                f"{name} = {_fmt(v, name)} lies {within}; no estimate to compare it "
+                f"with. {LIMIT_ANALYSIS_NOTE}"
             )
         elif lb is not None or ub is not None:
             reasons.append(
@@ -371,6 +395,43 @@ def _bound_name(kind: str, side: str) -> str:
     if kind == "strength":
         return "limit analysis"
     return "Voigt" if side == "upper" else "Reuss"
+
+
+def _clip_band(
+    band: tuple[float, float], lb: float | None, ub: float | None, slack: float
+) -> tuple[str, tuple[float, float], tuple[float, float]]:
+    """Clip a band to the rigorous bounds.
+
+    Returns what was clipped (``""``, ``"Reuss bound"``, ``"Voigt bound"`` or ``"Reuss and
+    Voigt bounds"``), the clipped band, and the band to grade against: a clipped end moved out
+    by the bound's allowance ``slack``, so that a value within it is not suspect for that alone.
+    """
+    lo, hi = band
+    which = []
+    if lb is not None and lo < lb:
+        which.append("Reuss")
+    if ub is not None and hi > ub:
+        which.append("Voigt")
+    if lb is not None:
+        lo, hi = max(lo, lb), max(hi, lb)
+    if ub is not None:
+        lo, hi = min(lo, ub), min(hi, ub)
+    lo_ok = lo - slack * abs(lo) if "Reuss" in which else lo
+    hi_ok = hi + slack * abs(hi) if "Voigt" in which else hi
+    text = "" if not which else (" and ".join(which) + (" bounds" if len(which) > 1 else
+                                                       " bound"))
+    return text, (lo, hi), (lo_ok, hi_ok)
+
+
+#: What the limit-analysis bounds of a strength are, and why a strength outside them is only
+#: suspect.
+LIMIT_ANALYSIS_NOTE = (
+    "These are limit-analysis bounds for perfectly plastic, perfectly bonded phases (Drucker "
+    "1966), not rigorous bounds for every model: a strength from a brittle or damage model may "
+    "legitimately lie outside them, so a strength is at most suspect."
+)
+
+_LIMIT_NAME = {"lower": "limit-analysis lower bound", "upper": "limit-analysis upper bound"}
 
 
 _LIMIT_TEXT = {

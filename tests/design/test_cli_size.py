@@ -54,7 +54,7 @@ def test_uncertainty_alone_in_json_with_a_progress_bar(case_file, monkeypatch):
     assert r.exit_code == 0, r.output
     d = json.loads(r.stdout)
     assert d["sizing"] is None and d["uncertainty"]["n"] == 300
-    assert d["uncertainty"]["inputs"]["matrix.E"]["cov"] == 0.1
+    assert d["uncertainty"]["inputs"]["matrix_E"]["cov"] == 0.1
     assert "Monte Carlo" in r.stderr
 
 
@@ -92,3 +92,30 @@ def test_too_many_samples_are_refused_by_the_option(case_file):
     assert cli_module._SIZE_MAX_SAMPLES == MAX_SAMPLES
     r = run("size", str(case_file), "--uncertainty", str(MAX_SAMPLES + 1))
     assert r.exit_code == 2 and "--uncertainty" in r.output and "Traceback" not in r.output
+
+
+def _keys(obj):
+    if isinstance(obj, dict):
+        for k, v in obj.items():
+            yield k
+            yield from _keys(v)
+    elif isinstance(obj, list):
+        for v in obj:
+            yield from _keys(v)
+
+
+def test_json_keys_have_no_dots_uncertain_inputs_use_underscores(case_file):
+    r = run("size", str(case_file), "-t", "E2=9GPa", "--uncertainty", "50", "--json")
+    assert r.exit_code == 0, r.output
+    d = json.loads(r.stdout)
+    assert not [k for k in _keys(d) if "." in k]
+    assert set(d["uncertainty"]["inputs"]) == {
+        "fibre_E", "fibre_nu", "fibre_alpha", "matrix_E", "matrix_nu", "matrix_alpha",
+        "fibre_density", "matrix_density", "volume_fraction"}
+
+
+def test_point_window_prints_a_single_weight_fraction(case_file):
+    r = run("size", str(case_file), "-t", "E2=9GPa", "-m", "mori_tanaka", "--no-bounds")
+    assert r.exit_code == 0, r.output
+    line = next(ln for ln in r.stdout.splitlines() if "met under every model" in ln)
+    assert "(weight fraction " in line and " to " not in line

@@ -35,14 +35,14 @@ def test_rule_of_mixtures_scatter_converges_to_the_closed_form(glass_epoxy):
 
 def test_inputs_of_an_isotropic_and_a_transversely_isotropic_fibre(glass_epoxy, carbon, resin):
     iso = constituent_inputs(Constituents.from_composite(glass_epoxy), 0.55)
-    assert list(iso) == ["fibre.E", "fibre.nu", "fibre.alpha", "matrix.E", "matrix.nu",
-                         "matrix.alpha", "fibre.density", "matrix.density", "volume_fraction"]
-    assert iso["fibre.E"].cov == 0.05 and iso["fibre.nu"].cov == 0.0
+    assert list(iso) == ["fibre_E", "fibre_nu", "fibre_alpha", "matrix_E", "matrix_nu",
+                         "matrix_alpha", "fibre_density", "matrix_density", "volume_fraction"]
+    assert iso["fibre_E"].cov == 0.05 and iso["fibre_nu"].cov == 0.0
     assert iso["volume_fraction"].upper == pytest.approx(0.82)
-    ti = constituent_inputs(Constituents(carbon, resin), 0.6, covs={"fibre.nu23": 0.1},
+    ti = constituent_inputs(Constituents(carbon, resin), 0.6, covs={"fibre_nu23": 0.1},
                             cov_expansion=0.1, distribution="lognormal")
-    assert {"fibre.E1", "fibre.E2", "fibre.G12", "fibre.nu12", "fibre.alpha1"} <= set(ti)
-    assert ti["fibre.nu23"].cov == 0.1 and ti["fibre.alpha1"].distribution == "lognormal"
+    assert {"fibre_E1", "fibre_E2", "fibre_G12", "fibre_nu12", "fibre_alpha1"} <= set(ti)
+    assert ti["fibre_nu23"].cov == 0.1 and ti["fibre_alpha1"].distribution == "lognormal"
 
 
 def test_transversely_isotropic_fibre_rows_stay_positive_definite(carbon, resin):
@@ -51,7 +51,7 @@ def test_transversely_isotropic_fibre_rows_stay_positive_definite(carbon, resin)
                     keep_samples=True)
     s = r.samples
     assert r.rejected > 0
-    assert np.all(s["fibre.nu23"] < 1 - 2 * s["fibre.nu12"] ** 2 * s["fibre.E2"] / s["fibre.E1"])
+    assert np.all(s["fibre_nu23"] < 1 - 2 * s["fibre_nu12"] ** 2 * s["fibre_E2"] / s["fibre_E1"])
     assert np.all(s["volume_fraction"] > 0) and np.all(s["volume_fraction"] < 0.82)
 
 
@@ -110,8 +110,8 @@ def test_design_without_a_fraction_is_an_error(glass, resin):
 
 
 def test_unknown_cov_name_is_an_error(glass_epoxy):
-    with pytest.raises(InputError, match="covs: 'fibre.E1' is not an input; inputs are fibre.E"):
-        monte_carlo(glass_epoxy, 10, covs={"fibre.E1": 0.1})
+    with pytest.raises(InputError, match="covs: 'fibre_E1' is not an input; inputs are fibre_E"):
+        monte_carlo(glass_epoxy, 10, covs={"fibre_E1": 0.1})
 
 
 def test_several_constituents_are_an_error(glass_epoxy):

@@ -209,3 +209,20 @@ def test_random_3d_glass_is_sized_with_the_isotropic_bounds(glass, resin):
     # aspect ratio 1: Mori-Tanaka = HS lower bound (Weng 1984), so it closes the interval
     assert r["E1"].bounds.interval[1] == pytest.approx(r["E1"].models["mori_tanaka"].fraction,
                                                        rel=1e-9)
+
+
+def test_point_window_prints_one_weight_fraction_and_one_density(glass_epoxy):
+    r = size_fraction(glass_epoxy, "E1=40GPa", models=["mori_tanaka"], bounds=False)
+    (w,) = r.common_window
+    assert w.low.volume_fraction == w.high.volume_fraction  # an equality target: a point
+    wf, rho = f"{w.low.weight_fraction:.4g}", w.low.density / 1e3
+    assert f"for Vf {w.low.volume_fraction:.4g} (weight fraction {wf}; density {rho:.4g} g/cm^3)" \
+           in r.message
+    assert " to " not in r.message
+
+
+def test_interval_window_still_prints_both_ends(glass_epoxy):
+    r = size_fraction(glass_epoxy, "E1>=30GPa", models=["mori_tanaka"], bounds=False)
+    (w,) = r.common_window
+    assert f"weight fraction {w.low.weight_fraction:.4g} to {w.high.weight_fraction:.4g}" \
+           in r.message

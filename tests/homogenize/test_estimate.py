@@ -125,6 +125,53 @@ def test_band_is_none_without_bounds_on_a_constant():
     assert est.band("E1") is None  # only an upper bound with voids
 
 
+@pytest.mark.parametrize(
+    ("kw", "key", "name", "bound"),
+    [
+        ({}, "voigt", "E2", True),  # Hill (1952): the Voigt stiffness bounds every modulus
+        ({}, "reuss", "G23", True),
+        ({}, "voigt", "nu12", False),  # ... but no Poisson ratio
+        ({}, "reuss", "nu23", False),
+        ({}, "hashin_shtrikman_lower", "nu12", True),  # Hill (1964): nu12 of aligned fibres
+        ({}, "hashin_shtrikman_upper", "alpha2", True),  # Rosen & Hashin (1970)
+        ({}, "hashin_shtrikman_upper", "nu23", False),
+        ({}, "mori_tanaka", "E2", False),  # an estimate
+        (dict(inclusion="sphere"), "hashin_shtrikman_lower", "nu12", False),
+        (dict(inclusion="spheroid", aspect_ratio=4.0), "hashin_shtrikman_upper", "alpha1", False),
+    ],
+)
+def test_is_bound_says_which_values_of_the_bound_models_are_bounds(kw, key, name, bound):
+    assert estimate(Composite(GLASS, EPOXY, 0.3, **kw)).is_bound(key, name) is bound
+
+
+def test_outside_bounds_names_the_estimates_that_leave_the_band():
+    est = estimate(Composite(GLASS, EPOXY, 0.55))
+    out = {(x.model, x.name): x for x in est.outside_bounds(("E2", "nu12"))}
+    # rule of mixtures nu12 = 0.55 * 0.22 + 0.45 * 0.35 = 0.2785, above Hill's (1964) upper bound
+    x = out[("rule_of_mixtures", "nu12")]
+    assert (x.side, x.bound_model, x.fraction) == ("above", "hashin_shtrikman_upper", 0.55)
+    assert x.value == pytest.approx(0.2785, rel=1e-12)
+    assert x.bound == pytest.approx(float(est["hashin_shtrikman_upper"].nu12), rel=1e-12)
+    # the inverse rule of mixtures for E2 is the Reuss value: below the lower HS bound
+    x = out[("rule_of_mixtures", "E2")]
+    assert x.side == "below" and x.value == pytest.approx(float(est["reuss"].E2), rel=1e-12)
+    assert x.bound_model == "hashin_shtrikman_lower"
+    # Mori-Tanaka and the cylinder assemblage stay within the bounds of aligned fibres
+    assert not {k for k, _ in out} & {"mori_tanaka", "cylinders", "voigt", "reuss"}
+
+
+def test_outside_bounds_reports_the_furthest_point_of_a_sweep():
+    est = estimate(Composite(GLASS, EPOXY, np.array([0.0, 0.3, 0.6])))
+    (x,) = [x for x in est.outside_bounds(("E2",)) if x.model == "rule_of_mixtures"]
+    assert x.fraction == 0.6  # at vf = 0 every estimate equals the matrix: inside
+    assert est.outside_bounds(("E2",), rtol=np.inf) == []
+
+
+def test_outside_bounds_uses_one_sided_bounds_with_voids():
+    est = estimate(Composite(GLASS, EPOXY, 0.3, void_fraction=0.02))
+    assert est.band("E1") is None and est.outside_bounds() == []  # M-T below Voigt
+
+
 def test_mori_tanaka_entry_equals_the_direct_call():
     est = estimate(Composite(GLASS, EPOXY, 0.3, inclusion="spheroid", aspect_ratio=8.0))
     direct = mori_tanaka(GLASS, EPOXY, 0.3, "spheroid", 8.0)

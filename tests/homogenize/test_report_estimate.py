@@ -46,6 +46,35 @@ def test_table_has_bound_columns_units_sources_and_the_caution():
     assert "not design allowables" in text
 
 
+def _row(text: str, label: str) -> list[str]:
+    return next(line for line in text.splitlines() if line.startswith(label)).split()[2:]
+
+
+def test_table_shows_values_of_bound_models_that_are_not_bounds_in_parentheses():
+    text = estimate_table(estimate(Composite(GLASS, EPOXY, 0.55)))
+    # columns: Reuss, HS low, RoM, H-T, Chamis, CCA, M-T, HS up, Voigt
+    nu12, e2 = _row(text, "nu12 [-]"), _row(text, "E2 [GPa]")
+    assert nu12[0].startswith("(") and nu12[-1].startswith("(")  # Voigt/Reuss: no bound on nu
+    assert not nu12[1].startswith("(") and not nu12[7].startswith("(")  # HS: Hill (1964)
+    assert not any(v.startswith("(") for v in e2)  # every modulus is bounded (Hill 1952)
+    assert "( ) not a bound: the value of a bound model for a constant it does not bound" in text
+
+
+def test_table_notes_estimates_outside_the_bounds():
+    text = estimate_table(estimate(Composite(GLASS, EPOXY, 0.55)))
+    section = text.split("outside the bounds of this table:")[1].split("strength")[0]
+    rom = re.search(r"^  RoM .*?(?=^  \S)", section, re.M | re.S).group(0)
+    assert "nu12 0.2785 > " in rom and "(HS up)" in rom  # 0.55 * 0.22 + 0.45 * 0.35
+    assert "E2 " in rom and "GPa (HS low)" in rom
+    assert "M-T" not in section and "CCA" not in section
+    assert "known approximations, not bounds" in section
+
+
+def test_table_without_excursions_has_no_outside_section():
+    text = estimate_table(estimate(Composite(GLASS, EPOXY, 0.3, void_fraction=0.02)))
+    assert "outside the bounds" not in text and "(0." in text  # Voigt nu12 still marked
+
+
 def test_table_lists_absent_models_and_ranges():
     est = estimate(Composite(GLASS, EPOXY, np.array([0.1, 0.3]), inclusion="sphere",
                              void_fraction=0.01))
@@ -142,9 +171,10 @@ def test_cli_bad_options_exit_2(tmp_path, args, match):
 def test_plot_rejects_an_unknown_format_before_drawing(tmp_path):
     from micromech.errors import InputError
 
-    with pytest.raises(InputError, match=r"path = '.*e\.jpg': the file name must end in \.png, "
-                                         r"\.svg, \.pdf \(got \.jpg\)"):
-        plot_estimates(estimate(Composite(GLASS, EPOXY, 0.55)), tmp_path / "e.jpg")
+    with pytest.raises(InputError, match=r"path = '.*e\.txt': the file name must end in \.png, "
+                                         r"\.svg, \.pdf, .*\(format 'txt' is not an image "
+                                         r"format that can be written\)"):
+        plot_estimates(estimate(Composite(GLASS, EPOXY, 0.55)), tmp_path / "e.txt")
 
 
 def test_cli_json_models_are_the_contract_keys_in_si(tmp_path):

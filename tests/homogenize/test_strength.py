@@ -96,6 +96,28 @@ def test_yield_bound_errors():
 
 
 @pytest.mark.parametrize(
+    ("fractions", "match"),
+    [
+        ([0.3, 0.6], r"fractions sum to 0\.9; the phase volume fractions must sum to 1 "
+                     r"\(within 1e-09\)"),
+        ([[0.3, 0.3], [0.7, 0.8]], r"fractions sum to 1\.1 at index 1; .*must sum to 1"),
+        ([0.5, 0.5 + 2e-9], r"fractions sum to 1\.000000002; "),
+    ],
+)
+def test_yield_bounds_fractions_must_sum_to_one(fractions, match):
+    strengths = np.broadcast_to(np.array([400e6, 80e6]).reshape((2,) + (1,) * (np.ndim(
+        fractions) - 1)), np.shape(fractions))
+    with pytest.raises(InputError, match=match):
+        yield_bounds(strengths, fractions)
+
+
+def test_yield_bounds_accept_round_off_in_the_sum():
+    vf, vv = 0.1, 0.2  # 0.1 + (1 - 0.1 - 0.2) + 0.2 differs from 1 by round-off only
+    lo, hi = yield_bounds([400e6, 80e6, 0.0], [vf, 1.0 - vf - vv, vv])
+    assert float(lo) == 0.0 and float(hi) == pytest.approx(0.1 * 400e6 + 0.7 * 80e6, rel=1e-12)
+
+
+@pytest.mark.parametrize(
     ("call", "match"),
     [(lambda: longitudinal_tension(-1.0, 72e9, 3e9, 0.5), "fibre Xt = -1.0: must be positive"),
      (lambda: kink_band(60e6, 5e9, 0.0), "misalignment = 0.0: must be positive"),

@@ -52,7 +52,11 @@ def test_analysis_without_loads_or_strengths_explains_what_is_missing(graphite_e
     nostrength = Laminate.from_code("[0/90]s", bare, 1e-3)
     b = analyse_laminate(nostrength, {"Nx": 1e4})
     assert b.response is not None and b.criteria == {}
-    assert any("needs ply strengths S12, Xc, Yc, Yt" in n for n in b.notes)
+    note = next(n for n in b.notes if "needs ply strengths" in n)
+    # in the order of the criteria, with where to put them and that estimates are not used
+    assert "needs ply strengths Xc, Yt, Yc, S12: give them as flat keys Xt, Xc, Yt, Yc, S12 " \
+           "in the case's [ply] table" in note
+    assert "strength estimates of `micromech estimate` are not used" in note
     with pytest.raises(InputError, match="criterion 'tsai_wu' was not evaluated"):
         b.ply_ratio()
 
@@ -134,3 +138,20 @@ def test_case_without_ply_constants_uses_the_real_estimate():
     # a cross-ply of an estimated glass/polymer ply: in-plane Ex = Ey (exact identity)
     c = lam.in_plane_constants()
     assert c.Ex == pytest.approx(c.Ey, rel=1e-12)
+
+
+def test_ply_origin_names_the_table_and_the_strengths_given():
+    from micromech.laminate import ply_origin
+
+    NS = SimpleNamespace
+    strong = NS(Xt=1e9, Xc=6e8, Yt=4e7, Yc=1.2e8, S12=6e7, S23=None)
+    named = NS(name="carbon/epoxy (invented)", strengths=strong)
+    assert ply_origin(NS(ply=named)) == ("constants from [ply] of the case (carbon/epoxy "
+                                         "(invented)); strengths Xt, Xc, Yt, Yc, S12 from [ply] "
+                                         "of the case")
+    est = NS(ply=None, ply_model="chamis", ply_strengths=NS(Xt=1e9))
+    assert ply_origin(est) == ("chamis estimate from [fibre], [matrix] and [composite]; "
+                               "strengths Xt from [ply] of the case")
+    bare = NS(ply=None, ply_model="mori_tanaka", ply_strengths=None)
+    assert ply_origin(bare).endswith("no ply strengths (failure analysis needs Xt, Xc, Yt, Yc, "
+                                     "S12 in [ply])")

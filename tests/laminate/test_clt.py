@@ -223,7 +223,7 @@ def test_with_materials_keeps_angles_and_thicknesses(graphite_epoxy, graphite_ep
 def test_laminate_needs_plies():
     with pytest.raises(InputError, match="needs at least one ply"):
         Laminate(())
-    with pytest.raises(InputError, match="ply 0 is a str, expected a Ply"):
+    with pytest.raises(InputError, match=r"ply 1 \(from 1 at the bottom\) is a str, expected"):
         Laminate(("0",))  # type: ignore[arg-type]
 
 

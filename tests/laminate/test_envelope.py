@@ -88,8 +88,8 @@ def test_stress_axis_intercepts_are_average_stresses(cross_ply):
 
 def test_plot_refuses_an_unknown_format_or_a_missing_folder(cross_ply, tmp_path):
     e = failure_envelope(cross_ply, "Nx,Ny", n_points=8)
-    with pytest.raises(InputError, match=r"plot file = .*env.txt.*format 'txt' is not an image "
-                                         r"format.*png"):
+    with pytest.raises(InputError, match=r"plot file = .*env.txt': the file name must end in "
+                                         r"\.png, .*\(format 'txt' is not an image format"):
         plot_envelopes([e], tmp_path / "env.txt")
     with pytest.raises(InputError, match=r"plot file = .*: folder .*missing.* does not exist"):
         plot_envelopes([e], tmp_path / "missing" / "env.png")

@@ -135,7 +135,8 @@ def test_failure_analysis_errors(graphite_epoxy, graphite_epoxy_2d):
     with pytest.raises(InputError, match=r"residual = 0.0: must lie in \(0, 1\)"):
         last_ply_failure(lam, {"Nx": 1.0}, residual=0.0)
     weak = PlyMaterial(E1=181e9, E2=10.3e9, nu12=0.28, G12=7.17e9, strengths={"Xt": 1e9})
-    with pytest.raises(InputError, match="ply 0 .*strength Xc missing"):
+    with pytest.raises(InputError, match=r"ply 1 of 1 from the bottom .*strength Xc missing.*"
+                                         r"flat keys Xt, Xc, Yt, Yc, S12 in the case's \[ply\]"):
         first_ply_failure(Laminate.from_code("[0]", weak, 1e-3), {"Nx": 1.0})
 
 

@@ -75,6 +75,10 @@ def test_json_follows_the_design_contract(graphite_epoxy):
 def test_json_without_loads_has_no_stresses(graphite_epoxy_2d):
     d = laminate_json(analyse_laminate(Laminate.from_code("[0/90]", graphite_epoxy_2d, 1e-3)))
     assert d["plies"][0]["stress_material"] is None and d["plies"][0]["criteria"] is None
+    # the same keys as with loads, each null (not absent)
+    for key in ("point", "stress_material", "stress_laminate", "strain_material",
+                "stress_material_thermal", "stress_material_points"):
+        assert all(key in p and p[key] is None for p in d["plies"]), key
     assert d["stack_3d"] is None and d["first_ply_failure"] is None
     assert d["B"][0][0] != 0.0  # unsymmetric: coupling is real
     json.dumps(d, allow_nan=False)
@@ -187,3 +191,96 @@ def test_intercept_table_shows_display_units_and_never(graphite_epoxy):
     assert float(cells[4]) == pytest.approx(env.intercepts["-Mxy"], rel=1e-3)  # N stays N*m/m
     never = replace(env, intercepts={**env.intercepts, "+Nx": float("inf")})
     assert envelope_intercepts_table([never]).splitlines()[2].split()[1] == "never"
+
+
+def test_every_ply_has_the_same_json_keys_with_and_without_loads(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    loaded = laminate_json(analyse_laminate(lam, {"Nx": 1e5}))["plies"]
+    unloaded = laminate_json(analyse_laminate(lam))["plies"]
+    assert [set(p) for p in loaded] == [set(p) for p in unloaded]
+
+
+def test_json_numbers_plies_from_one_beside_the_zero_based_index(graphite_epoxy):
+    d = laminate_json(analyse_laminate(Laminate.from_code("[0/90/45]", graphite_epoxy, 1e-3)))
+    assert [(p["index"], p["ply"]) for p in d["plies"]] == [(0, 1), (1, 2), (2, 3)]
+
+
+def test_json_balanced_laminate_thermal_shear_is_exactly_zero(graphite_epoxy):
+    # [0/90/+-45]s is balanced: alpha_xy = 0 exactly (Jones 1999, Sec. 4.5: no extension-shear
+    # coupling in a balanced laminate); round-off (about 1e-38) is written as 0, as for B.
+    lam = Laminate.from_code("[0/90/+-45]s", graphite_epoxy, 0.125e-3)
+    d = laminate_json(analyse_laminate(lam, {"Nx": 1e5, "delta_T": -100.0}))
+    alpha = d["thermal_expansion"]
+    assert alpha["alpha_xy"] == 0.0 and alpha["alpha_x"] == pytest.approx(alpha["alpha_y"])
+    assert alpha["alpha_x"] > 0.0
+    # a 0-degree ply carries no thermal shear stress in material axes: exactly 0 in the JSON
+    zero = next(p for p in d["plies"] if p["angle"] == 0.0)
+    assert zero["stress_material_thermal"]["s12"] == 0.0
+    assert zero["stress_material_thermal"]["s11"] != 0.0
+
+
+def test_table_numbers_plies_from_one_in_rows_and_failure_lines(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    text = laminate_table(analyse_laminate(lam, {"Nx": 1e5}))
+    lines = text.splitlines()
+    head = next(i for i, ln in enumerate(lines) if ln.lstrip().startswith("ply  angle"))
+    numbers = [ln.split()[0] for ln in lines[head + 2:head + 6]]
+    assert numbers == ["1", "2", "3", "4"]
+    assert any(ln.startswith("plies numbered from 1 at the bottom") for ln in lines)
+    first = next(ln for ln in lines if ln.startswith("First-ply failure"))
+    assert first.endswith("plies 2, 3 (matrix_tension)")  # the 90-degree plies, 1-based
+    event = next(ln for ln in lines if ln.strip().startswith("1 ") and "(" in ln)
+    assert "2 (matrix_tension), 3 (matrix_tension)" in event
+
+
+def test_table_ply_material_line_says_where_constants_and_strengths_come_from(graphite_epoxy):
+    lam = Laminate.from_code("[0/90]s", graphite_epoxy, 0.125e-3)
+    a = analyse_laminate(lam, {"Nx": 1e5})
+    assert "Ply material: graphite/epoxy\n" in laminate_table(a)
+    text = laminate_table(a, ply_origin="mori_tanaka estimate; strengths from [ply]")
+    assert "Ply material: mori_tanaka estimate; strengths from [ply]\n" in text
+
+
+_NO_STRENGTHS = """
+name = "invented example: glass/epoxy without ply strengths"
+[fibre]
+use = "e-glass"
+[matrix]
+use = "epoxy"
+[composite]
+volume_fraction = 0.5
+{ply}
+[laminate]
+layup = "[0/90]s"
+ply_thickness = "0.25 mm"
+loads = {{ Nx = "100 N/mm" }}
+"""
+
+
+def test_command_without_strengths_says_where_to_give_them(tmp_path):
+    p = tmp_path / "bare.toml"
+    p.write_text(_NO_STRENGTHS.format(ply=""), encoding="utf-8")
+    result = CliRunner().invoke(cli, ["laminate", str(p)])
+    assert result.exit_code == 0, result.output
+    assert ("Ply material: mori_tanaka estimate from [fibre], [matrix] and [composite]; no ply "
+            "strengths (failure analysis needs Xt, Xc, Yt, Yc, S12 in [ply])") in result.output
+    assert ("note: failure analysis needs ply strengths Xt, Xc, Yt, Yc, S12: give them as flat "
+            "keys Xt, Xc, Yt, Yc, S12 in the case's [ply] table") in result.output
+    assert "strength estimates of `micromech estimate` are not used" in result.output
+
+
+def test_command_names_the_ply_table_as_the_source_of_the_strengths(tmp_path):
+    p = tmp_path / "given.toml"
+    ply = '[ply]\nmodel = "halpin_tsai"\nXt = "1 GPa"\nXc = "600 MPa"\nYt = "40 MPa"\n' \
+          'Yc = "120 MPa"\nS12 = "60 MPa"'
+    p.write_text(_NO_STRENGTHS.format(ply=ply), encoding="utf-8")
+    result = CliRunner().invoke(cli, ["laminate", str(p)])
+    assert result.exit_code == 0, result.output
+    assert ("Ply material: halpin_tsai estimate from [fibre], [matrix] and [composite]; "
+            "strengths Xt, Xc, Yt, Yc, S12 from [ply] of the case") in result.output
+
+
+def test_command_with_ply_constants_names_the_ply_table(case_file):
+    result = CliRunner().invoke(cli, ["laminate", str(case_file())])
+    assert ("Ply material: constants from [ply] of the case; strengths Xt, Xc, Yt, Yc, S12 "
+            "from [ply] of the case") in result.output

@@ -284,7 +284,8 @@ def test_weight_fraction_constructor_passes_the_orientation():
     ("kw", "match"),
     [
         (dict(orientation="random"), r"orientation = 'random' is not one of aligned, "
-                                     r"random_in_plane, random_3d; did you mean 'random_3d'\?"),
+                                     r"random_in_plane, random_3d; did you mean "
+                                     r"'random_in_plane' or 'random_3d'\?"),
         (dict(inclusion="sphere", orientation="random_3d"),
          r"orientation = 'random_3d' is not allowed with inclusion = 'sphere' \(rule: random_3d "
          r"needs inclusion 'spheroid'; a sphere has no orientation\)"),

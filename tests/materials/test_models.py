@@ -282,13 +282,46 @@ def test_unit_error_inside_strengths_names_the_field():
         (dict(Yc="-100 MPa"), r"Yc = -100000000.0 must be positive: give compressive"),
         (dict(Xt=0.0), r"Xt = 0.0 must be positive"),
         (dict(S12=-1.0), r"S12 = -1.0 must be positive"),
-        (dict(Xx=1.0), r"unknown field 'Xx'; did you mean 'Xt'\?"),
+        (dict(Xx=1.0), r"unknown field 'Xx'; valid fields: Xt, Xc, Yt, Yc, S12, S23, "
+                      r"yield_strength"),  # nothing clearly nearest: the list
         (dict(Xt="inf MPa"), r"Xt must be a finite number, got 'inf MPa'"),
     ],
 )
 def test_invalid_strengths_raise_naming_field(kwargs, match):
     with pytest.raises((InvalidMaterialError, UnitError), match=match):
         Strengths(**kwargs)
+
+
+# A bare number is Pa; a modulus below 0.1 MPa or a strength below 1 kPa is a unit left out
+# (thresholds: common practice, no source).
+@pytest.mark.parametrize(
+    ("cls", "kwargs", "match"),
+    [
+        (TransverselyIsotropic, dict(CARBON, E1=230),
+         r"E1 = 230 Pa is below 0\.1 MPa, far below any fibre or matrix: a bare number is read as "
+         r"Pa; write '230 GPa'"),
+        (Isotropic, dict(E="230", nu=0.3),
+         r"E = 230 Pa is below 0\.1 MPa, .*write '230 GPa'"),  # a number as text is bare too
+        (Isotropic, dict(E=3500, nu=0.35), r"E = 3500 Pa is below 0\.1 MPa, .*write '3500 MPa'"),
+        (Isotropic, dict(E=3.5e9, G=1300), r"G = 1300 Pa is below 0\.1 MPa"),
+        (TransverselyIsotropic, dict(CARBON, G23=7), r"G23 = 7 Pa is below 0\.1 MPa"),
+        (Isotropic, dict(E="230 Pa", nu=0.3),
+         r"E = '230 Pa' is 230 Pa, below 0\.1 MPa, far below any fibre or matrix: check the unit"),
+        (Isotropic, dict(E=3e9, nu=0.3, strengths={"Xt": 80}),
+         r"strengths: Xt = 80 Pa is below 1 kPa, far below any fibre, matrix or ply strength: a "
+         r"bare number is read as Pa; write '80 MPa'"),
+    ],
+)
+def test_far_too_small_modulus_or_strength_is_refused(cls, kwargs, match):
+    with pytest.raises(InvalidMaterialError, match=match):
+        cls(name="m", **kwargs)
+
+
+def test_smallest_moduli_and_strengths_accepted():
+    m = Isotropic(E=1e5, nu=0.49, strengths={"Xt": 1e3})  # 0.1 MPa, 1 kPa: the floors
+    assert m.E == 1e5 and m.strengths.Xt == 1e3
+    with pytest.raises(InvalidMaterialError, match=r"E = 0.0 must be positive"):
+        Isotropic(E=0.0, nu=0.3)  # zero keeps the positivity message
 
 
 def test_invalid_strengths_inside_a_material_name_the_material():

@@ -125,7 +125,7 @@ def test_bundled_directory_missing_raises(monkeypatch, tmp_path):
 
 def test_unknown_key_suggests_the_nearest_keys():
     with pytest.raises(RegistryError, match=r"unknown material 'carbon'; did you mean "
-                       r"'carbon-\w+', 'carbon-[\w-]+', 'carbon-[\w-]+'\?"):
+                       r"'carbon-\w+', 'carbon-[\w-]+' or 'carbon-[\w-]+'\?"):
         REG["carbon"]
 
 

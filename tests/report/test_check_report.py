@@ -229,3 +229,46 @@ def test_demo_directory_holds_the_demo_cases_or_raises(monkeypatch, tmp_path):
     monkeypatch.setattr(micromech.resources, "data_candidates", lambda name: [tmp_path / name])
     with pytest.raises(DataFileError, match="bundled demo data not found"):
         demo_directory()
+
+
+# --- issue 6 of the user trial: limit-analysis marks, rows of yields not graded ---------------
+
+
+def test_strength_bounds_are_marked_limit_analysis_in_every_table():
+    r = check_case(DEMO / "crossply.toml")
+    _, rows = verdict_rows(r)
+    by_name = {row[0]: row for row in rows}
+    assert by_name["yield_strength_z"][3].endswith("GPa (LA)")  # Voigt average of strengths
+    assert not by_name["Ex"][3].endswith("(LA)")  # a rigorous Voigt bound: no mark
+    note = "limit-analysis bound of a strength for perfectly plastic"
+    assert note in format_check_text(r).replace("\n", " ")
+    assert note in render_markdown(r) and note in render_html(r)
+
+
+def linear_history_result(folder: Path) -> CheckResult:
+    """An invented linear x history (never crosses the offset line), checked."""
+    from micromech.case import case_from_dict
+
+    strain = np.linspace(0.0, 0.01, 40)
+    rows = "\n".join(f"{e:.8g},{41e9 * e / 1e6:.8g}" for e in strain)
+    (folder / "h.csv").write_text("# invented example\nstrain,stress\n" + rows)
+    data = {"fibre": {"use": "e-glass"}, "matrix": {"use": "epoxy"},
+            "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional",
+                    "load_case": [{"direction": "x", "file": "h.csv",
+                                   "stress": {"column": "stress", "unit": "MPa"},
+                                   "strain": {"column": "strain"}}]}}
+    return check_case(case_from_dict(data, path=folder / "c.toml"))
+
+
+def test_yield_that_is_not_found_keeps_its_row_and_reason(tmp_path):
+    r = linear_history_result(tmp_path)
+    _, rows = verdict_rows(r)
+    assert [row[0] for row in rows] == ["E1", "yield_strength_x", "ultimate_strength_x"]
+    assert rows[1] == ["yield_strength_x", "-", "-", "-", "-", "-", "not graded"]
+    text = format_check_text(r)
+    assert "yield_strength_x (not graded):" in text
+    assert "no offset yield: the curve stays above the 0.002 offset line" in text
+    md, html = render_markdown(r), render_html(r)
+    assert "### yield_strength_x: not graded" in md and "no offset yield" in md
+    assert "yield_strength_x: not graded</h3>" in html and "no offset yield" in html

@@ -166,3 +166,43 @@ def test_fraction_curve_of_unequal_length_raises():
 def test_unknown_property_kind_raises():
     with pytest.raises(InputError, match="property name 'k23' is not a modulus"):
         property_kind("k23")
+
+
+# --- issue 6 of the user trial: the reciprocal mistakes, the shear convention, ruled out -----
+
+TALL = (20e-6, 70e-6, 30e-6)  # x, y, z edges (invented): Ly / Lx = 3.5
+
+
+def test_other_shear_convention_is_named_with_micromechs_convention():
+    # xy history written as force along y on the x face, displacement over Lx: micromech reads
+    # force / (Lx Lz) and displacement / Ly, so G12 comes out (Ly / Lx)^2 = 12.25 times too large
+    out = causes("G12", 12.25 * 4e9, 4e9, direction="xy", size=TALL)
+    assert out[0].startswith("Likely cause 1: A wrong area or length")
+    assert "close to 12.2" in out[0] and "other shear convention" in out[0]
+    assert ("The xy load case is read as force along x on the face normal to y (shear stress = "
+            "force / (Lx Lz)) and engineering shear strain = displacement along x / Ly.") in out[0]
+
+
+def test_cell_size_with_x_and_y_swapped_is_named():
+    # declared (70, 20, 30) um for a (20, 70, 30) um cell: E1 = F Ldecl_x / (A_decl u) comes out
+    # (70 / 20)^2 = 12.25 times too large
+    out = causes("E1", 12.25 * 40e9, 40e9, direction="x", size=(70e-6, 20e-6, 30e-6))
+    assert out[0].startswith("Likely cause 1: A wrong area or length")
+    assert "[rve].size with the x and y entries swapped" in out[0]
+
+
+def test_history_made_for_another_face_is_found_in_the_reverse_direction():
+    # x load on (20, 70, 30) um: the y face is 3.5 times smaller than the x face; force meant
+    # for the y face read over the x face gives E1 / 3.5 (0.286), a factor below 1 that the
+    # forward direction (all factors above 1 for this cell) cannot give
+    out = causes("E1", 40e9 / 3.5, 40e9, direction="x", size=TALL)
+    assert out[0].startswith("Likely cause 1: A wrong area or length")
+    assert "close to 0.286" in out[0] and "force on the y face" in out[0]
+
+
+def test_ruled_out_fraction_is_listed_after_the_numbered_causes():
+    out = likely_causes("E2", 30e9, best_value=11e9, best_model="Mori-Tanaka",
+                        context=Diagnosis(fraction_curve=([0.0, 0.7], [3.5e9, 17e9])))
+    assert out[-1].startswith("Ruled out: a wrong fibre fraction.")
+    assert "between 0 and 0.7" in out[-1]
+    assert not any(x.startswith("Likely cause") and "fraction" in x for x in out)

@@ -590,3 +590,103 @@ def test_randomly_oriented_fibres_are_refused_with_the_rule(tmp_path):
     (tmp_path / "mat.toml").write_text(src, encoding="utf-8")
     with pytest.raises(CaseFileError, match=r"orientation = 'random_3d'.*aligned fibres"):
         check_case(load_case(tmp_path / "mat.toml"))
+
+
+# --- issue 6 of the user trial ---------------------------------------------------------------
+
+def with_check(case, **check):
+    """The case with another [check] table, past the case file's own validation of names."""
+    import dataclasses
+
+    return dataclasses.replace(case, check=check)
+
+
+def test_unknown_property_names_raise_with_the_nearest_valid_names():
+    # a 1000 x unit slip must not pass as consistent because the names select nothing
+    case = with_check(ud_case(mt_stiffness_gpa() * 1000), properties=["e1", "G21"])
+    with pytest.raises(InputError, match=r"'e1' \(did you mean 'E1'\?\); 'G21' \(did you mean "
+                                         r"'G12'\?\) are not property names"):
+        check_case(case)
+
+
+def test_property_no_load_case_gives_raises_naming_the_load_case(tmp_path):
+    mt = ud_mori_tanaka()
+    case = history_case(tmp_path, UD_BASE, "unidirectional", {"x": float(mt.E1)})
+    with pytest.raises(CaseFileError, match=r"'E2' is not given by .* direction = 'y'"):
+        check_case(with_check(case, properties=["E1", "E2"]))
+    with pytest.raises(CaseFileError, match=r"'Ex' is not given by .* name this property 'E1'"):
+        check_case(with_check(case, properties=["Ex"]))
+
+
+def test_empty_property_list_raises():
+    with pytest.raises(CaseFileError, match=r"properties = \[\] selects nothing to grade"):
+        check_case(with_check(ud_case(mt_stiffness_gpa()), properties=[]))
+
+
+def linear_x_history_case(folder):
+    """Invented linear x history at the Mori-Tanaka E1: it never crosses the offset line."""
+    e1 = float(mt_constants().E1)
+    strain = np.linspace(0.0, 0.01, 40)
+    rows = "\n".join(f"{e:.8g},{e1 * e / 1e6:.8g}" for e in strain)
+    (folder / "h.csv").write_text("# invented example\nstrain,stress\n" + rows)
+    data = {**GLASS_EPOXY, "composite": {"volume_fraction": 0.55},
+            "rve": {"architecture": "unidirectional",
+                    "load_case": [{"direction": "x", "file": "h.csv",
+                                   "stress": {"column": "stress", "unit": "MPa"},
+                                   "strain": {"column": "strain"}}]}}
+    return case_from_dict(data, path=folder / "c.toml")
+
+
+def test_selection_of_only_a_yield_the_curve_does_not_give_raises(tmp_path):
+    case = with_check(linear_x_history_case(tmp_path), properties=["yield_strength_x"])
+    with pytest.raises(CaseFileError, match=r"selects nothing that can be graded "
+                                            r"\(yield_strength_x: no offset yield"):
+        check_case(case)
+
+
+def test_yield_the_curve_does_not_give_is_kept_as_not_graded(tmp_path):
+    r = check_case(linear_x_history_case(tmp_path))
+    assert "yield_strength_x" not in r.properties
+    assert r.not_graded["yield_strength_x"].startswith("no offset yield: the curve stays above")
+
+
+def test_fraction_search_reaches_the_packing_limit():
+    case = load_case(DEMO / "crossply.toml")
+    grid = expected_properties(case, ["Ex"])["Ex"].fraction_curve[0]
+    assert grid[-1] == pytest.approx(case.composite.packing_limit)  # as the size command uses
+
+
+def test_poisson_ratio_beyond_the_stability_limit_violates_bounds(tmp_path):
+    # lateral column 1000 x the axial unit: nu12 = 271 while sqrt(E1 / E2) = 2.0; a positive
+    # definite compliance needs nu12^2 < E1 / E2 (Lempriere 1968, AIAA J. 6, 2226, from memory)
+    mt = ud_mori_tanaka()
+    moduli = {"x": float(mt.E1), "y": float(mt.E2)}
+    r = check_case(history_case(tmp_path, UD_BASE, "unidirectional", moduli,
+                                {("x", "y"): 1000 * float(mt.nu12)}))
+    nu = r.properties["nu12"]
+    assert nu.verdict == "violates_bounds" and r.exit_code == 1
+    assert nu.reasons[0].startswith("nu12 = 271 breaks the stability limit |nu12| < "
+                                    "sqrt(E1 / E2) = 2.0")
+    assert "simulated" in nu.reasons[0] and "unit mismatch" in nu.reasons[0]
+    assert any(x.startswith("Likely cause 1: A unit slip") for x in nu.reasons)
+
+
+def test_modulus_that_violates_its_bounds_does_not_condemn_the_poisson_ratio():
+    # crossply_bad: Ex is 1000 x too large; nuyx^2 < Ey / Ex would fail with it, so the
+    # stability check takes the best estimate of Ex instead
+    r = check_case(DEMO / "crossply_bad.toml")
+    assert r.properties["Ex"].verdict == "violates_bounds"
+    assert r.properties["nuyx"].verdict == "suspect"
+
+
+def test_other_shear_convention_in_a_history_is_named(tmp_path):
+    # xy history written with the force along y on the x face and the displacement over Lx:
+    # micromech's G12 is (Ly / Lx)^2 times the true one (BOX: x 60 um, y 40 um)
+    mt = ud_mori_tanaka()
+    r = check_case(history_case(tmp_path, UD_BASE, "unidirectional",
+                                {"xy": float(mt.G12) * (40 / 60) ** 2}))
+    g = r.properties["G12"]
+    assert g.verdict == "violates_bounds"
+    first = next(x for x in g.reasons if x.startswith("Likely cause 1"))
+    assert "A wrong area or length" in first and "other shear convention" in first
+    assert "The xy load case is read as force along x on the face normal to y" in first

@@ -353,3 +353,23 @@ def test_benchmark_grades_six_long_load_cases_in_under_two_seconds():
     spec.loader.exec_module(bench)
     result = bench.run(points=100_000, repeats=1)
     assert result["seconds"] < 2.0
+
+
+# --- issue 6 of the user trial: smooth curves are not taken for noisy ones --------------------
+
+
+@pytest.mark.parametrize("points", [60, 120, 500])
+def test_smooth_tanh_curve_is_not_flagged_noisy(points):
+    # a noise-free curve: its second differences are curvature, not noise
+    e = np.linspace(0.0, 0.03, points)
+    m = curve_metrics(e, 80e6 * np.tanh(e / 0.005))
+    assert not any("noisy" in note for note in m.notes)
+
+
+@pytest.mark.parametrize("seed", range(3))
+def test_tanh_curve_with_noise_above_1e4_of_the_range_is_smoothed(seed):
+    e = np.linspace(0.0, 0.03, 500)
+    s = 80e6 * np.tanh(e / 0.005)
+    noisy = s + np.random.default_rng(seed).normal(0.0, 1e-3 * 80e6, s.size)
+    m = curve_metrics(e, noisy)
+    assert any("noisy curve" in note and "smoothed over 5 points" in note for note in m.notes)

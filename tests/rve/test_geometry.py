@@ -445,7 +445,9 @@ def test_summary_text_lists_the_cell_and_the_files_and_ends_with_the_caution() -
     a = square_cell(0.5, D, n_per_side=2)
     text = arrangement_text(a, "RVE cell", written="c.csv", plot="c.png").splitlines()
     assert text[:3] == ["RVE cell", "--------", "  packing               square"]
-    assert "  fibres                4 (+" in text[3] and "achieved 0.5000 (asked 0.5000)" in text[5]
+    assert text[3].startswith("  axes                  fibres along z; centres in the x-y plane")
+    assert "  fibres                4 (+" in text[4] and "achieved 0.5000 (asked 0.5000)" in text[6]
+    assert "um (x by y) =" in text[7]
     assert text[-4:] == ["  written               c.csv", "  plot                  c.png", "",
                          CAUTION]
 
@@ -515,7 +517,7 @@ def test_cli_writes_json_for_a_json_name_and_a_plot(tmp_path: Path) -> None:
         (("--fraction", "0.5", "--diameter", "7 um", "--out", "c.csv", "--unit", "kg"),
          r"--unit expects a length"),
         (("--fraction", "0.5", "--diameter", "7 um", "--plot", "cell.doc"),
-         r"--plot = 'cell.doc': format 'doc' is not an image format"),
+         r"--plot = 'cell.doc': the file name must end in \.png.*format 'doc' is not an image"),
     ],
 )
 def test_cli_bad_input_exits_2_with_the_rule(args: tuple[str, ...], message: str) -> None:
@@ -554,3 +556,83 @@ def test_cells_too_large_to_build_are_refused_before_any_work() -> None:
         square_cell(0.5, D, n_per_side=1001)
     with pytest.raises(InputError, match=r"n_per_side = 800: a hexagonal cell of 1280000"):
         hexagonal_cell(0.5, D, n_per_side=800)
+
+
+# --- fibre axis of the files ------------------------------------------------------------------
+
+
+def test_csv_states_the_default_axes_fibres_along_z() -> None:
+    from micromech.rve.cellio import csv_text
+
+    text = csv_text(square_cell(0.5, D))
+    assert "# axes: fibres along z; centres in the x-y plane (a unidirectional check cell has " \
+           "its fibres along x; --fibre-axis x writes the centres as y, z)" in text
+    assert "# cell: x from 0 to " in text and "fibre,x_um,y_um,radius_um,image" in text
+
+
+def test_csv_with_fibre_axis_x_has_y_z_columns_with_the_same_numbers(tmp_path: Path) -> None:
+    a = random_cell(0.55, D, n_fibres=12, seed=4, shake_sweeps=0)
+    default = a.to_csv(tmp_path / "z.csv").read_text()
+    along_x = a.to_csv(tmp_path / "x.csv", fibre_axis="x").read_text()
+    assert "# axes: fibres along x; centres in the y-z plane (as in a unidirectional check " \
+           "cell, x = 1 the fibre axis)" in along_x
+    assert "# cell: y from 0 to " in along_x and ", z from 0 to " in along_x
+    assert "fibre,y_um,z_um,radius_um,image" in along_x
+    # the cyclic map (u, v) -> (y, z): the data rows are the same, only the names change
+    rows = lambda t: [ln for ln in t.splitlines() if not ln.startswith("#")][1:]  # noqa: E731
+    assert rows(along_x) == rows(default)
+
+
+def test_json_with_fibre_axis_x_names_the_centres_y_and_z(tmp_path: Path) -> None:
+    a = hexagonal_cell(0.6, D)
+    d = a.as_dict("x")
+    assert d["fibre_axis"] == "x" and d["section_axes"] == ["y", "z"]
+    assert all(set(c) == {"fibre", "y", "z", "radius", "image"} for c in d["circles"])
+    default = a.as_dict()
+    assert default["fibre_axis"] == "z" and default["section_axes"] == ["x", "y"]
+    assert [(c["x"], c["y"]) for c in default["circles"]] == \
+           [(c["y"], c["z"]) for c in d["circles"]]
+    written = json.loads(a.to_json(tmp_path / "c.json", fibre_axis="x").read_text())
+    assert written["section_axes"] == ["y", "z"] and "z" in written["circles"][0]
+
+
+def test_summary_text_names_the_axes_of_the_cross_section() -> None:
+    text = arrangement_text(square_cell(0.5, D), "RVE cell", fibre_axis="x")
+    assert "  axes                  fibres along x; centres in the y-z plane" in text
+    assert "um (y by z) =" in text
+
+
+def test_unknown_fibre_axis_is_refused() -> None:
+    with pytest.raises(InputError, match=r"fibre_axis = 'y': choose 'z' \(centres in x, y\) or "
+                                         r"'x' \(centres in y, z"):
+        square_cell(0.5, D).as_dict("y")
+
+
+def test_plot_with_fibre_axis_x_writes_an_image(tmp_path: Path) -> None:
+    out = plot_arrangement(square_cell(0.5, D), tmp_path / "cell.svg", fibre_axis="x")
+    assert b"<svg" in out.read_bytes()[:400]
+
+
+def test_plot_refuses_a_format_before_drawing(tmp_path: Path) -> None:
+    with pytest.raises(InputError, match=r"plot file = .*cell\.gif': the file name must end in "):
+        plot_arrangement(square_cell(0.5, D), tmp_path / "cell.gif")
+    assert not (tmp_path / "cell.gif").exists()
+
+
+def test_cli_fibre_axis_x_writes_y_z_columns_and_says_so(tmp_path: Path) -> None:
+    out = tmp_path / "centres.csv"
+    res = run_cli("--fraction", "0.5", "--diameter", "7 um", "--packing", "square", "--fibres",
+                  "4", "--fibre-axis", "x", "--out", str(out))
+    assert res.exit_code == 0, res.output
+    assert "fibres along x; centres in the y-z plane" in res.output
+    assert "fibre,y_um,z_um,radius_um,image" in out.read_text()
+    data = json.loads(run_cli("--fraction", "0.5", "--diameter", "7 um", "--packing", "square",
+                              "--fibre-axis", "x", "--json").output)
+    assert data["fibre_axis"] == "x" and set(data["circles"][0]) >= {"y", "z"}
+
+
+def test_cli_default_keeps_x_y_and_says_fibres_along_z() -> None:
+    res = run_cli("--fraction", "0.5", "--diameter", "7 um", "--packing", "square")
+    assert res.exit_code == 0, res.output
+    assert "fibres along z; centres in the x-y plane" in res.output
+    assert "--fibre-axis x writes the centres as y, z" in res.output

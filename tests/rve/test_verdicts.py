@@ -197,3 +197,45 @@ def test_verdict_table(name, lb, ub, mt, value, verdict):
                        estimates={"mori_tanaka": mt}, band=band)
     assert r.verdict == verdict, r.reasons
     assert r.reasons  # every verdict carries its reasons
+
+
+# --- issue 6 of the user trial: bands clipped to the bounds, limit-analysis wording ----------
+
+
+def test_band_is_clipped_to_the_voigt_bound():
+    # invented E1: band 135.2 .. 143.6 GPa beside a Voigt bound of 139.5 GPa
+    r = grade_property("E1", 139.0e9, lower_bound=8e9, upper_bound=139.5e9,
+                       estimates={"mori_tanaka": 139.4e9}, band=(135.2e9, 143.6e9))
+    assert r.band == (135.2e9, 139.5e9)
+    assert r.verdict == "consistent" and "clipped to the Voigt bound" in r.reasons[0]
+
+
+def test_user_tolerance_band_is_clipped_to_the_reuss_bound():
+    r = grade_e2(11e9, tolerance=0.5)  # 5.5 .. 16.5 GPa around MT = 11 GPa; Reuss 6.5 GPa
+    assert r.band == (6.5e9, 16.5e9)
+    assert "clipped to the Reuss bound" in r.reasons[0]
+
+
+def test_value_on_a_clipped_band_end_keeps_the_bound_allowance():
+    # 0.3 % above Voigt, inside the 0.5 % allowance: not suspect for the clipped band alone
+    r = grade_property("E1", 139.5e9 * 1.003, lower_bound=8e9, upper_bound=139.5e9,
+                       estimates={"mori_tanaka": 139.4e9}, band=(135.2e9, 143.6e9))
+    assert r.verdict == "consistent"
+    assert any("within the 0.5 % allowed" in x for x in r.reasons)
+
+
+def test_strength_outside_is_called_a_limit_analysis_bound_for_plastic_phases():
+    r = grade_property("yield_strength_x", 2.5e9, lower_bound=60e6, upper_bound=1.9e9,
+                       estimates={}, best=None, bounds_rigorous=False)
+    assert r.verdict == "suspect"
+    assert "above the limit-analysis upper bound 1.9 GPa" in r.reasons[0]
+    assert "perfectly plastic" in r.reasons[0] and "brittle or damage model" in r.reasons[0]
+
+
+def test_strength_inside_is_not_said_to_lie_within_rigorous_bounds():
+    r = grade_property("ultimate_strength_x", 400e6, upper_bound=1.9e9, estimates={}, best=None,
+                       bounds_rigorous=False)
+    assert r.verdict == "consistent"
+    assert "within the rigorous bounds" not in r.reasons[0]
+    assert "lies below the limit-analysis upper bound 1.9 GPa" in r.reasons[0]
+    assert "brittle or damage model" in r.reasons[0]
