@@ -353,7 +353,8 @@ def _rve_refuse_same(target: str, other: str, option: str, what: str) -> None:
               help="Axis the fibres run along in the output: z (centres x, y) or x (centres "
                    "y, z, as in a unidirectional check cell).")
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
-@click.option("--plot", type=click.Path(dir_okay=False), help="Draw the cell to an image file.")
+@click.option("--plot", type=click.Path(dir_okay=False),
+              help="Draw the cell to an image file (.png, .svg, .pdf, ...).")
 def rve_command(
     case: str | None, packing: str | None, fraction: str | None, diameter: str | None,
     fibres: int | None, cell_size: str | None, gap: str | None, seed: int | None,
@@ -454,8 +455,9 @@ def _size_percentiles(text: str) -> tuple[float, ...]:
 @click.option("--no-bounds", is_flag=True, help="Leave out the Hashin-Shtrikman bounds.")
 @click.option("--json", "as_json", is_flag=True, help="Print JSON (SI units).")
 @click.option("--plot", "plot_file", type=click.Path(dir_okay=False),
-              help="Each target's property against fibre fraction, with the target line, to a "
-                   "PNG file (histograms go to FILE-scatter.png with --uncertainty).")
+              help="Each target's property against fibre fraction, with the target line, to an "
+                   "image file (.png, .svg, .pdf, ...; histograms go to FILE-scatter.png, same "
+                   "suffix, with --uncertainty).")
 @click.option("--uncertainty", "samples", type=click.IntRange(min=2, max=_SIZE_MAX_SAMPLES),
               default=None,
               metavar="N", help="Monte Carlo scatter of the case's properties with N samples.")

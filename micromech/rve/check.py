@@ -25,9 +25,13 @@ Directions: x, y in-plane and z through the thickness; for unidirectional and pa
 x = 1 (the fibre axis), y = 2, z = 3, and the properties are named E1 ... nu32; for stacks Ex
 ... nuzy. Strengths are graded against the limit-analysis bounds (matrix yield below, in shear
 its von Mises shear yield, yield / sqrt(3); Voigt average of the phase strengths above, normal
-load cases only); outside them a strength is ``suspect``. Averaged load cases or a full matrix
-give the effective 6x6 stiffness, whose symmetry error and positive definiteness are reported
-(:attr:`CheckResult.stiffness`) and whose engineering constants are graded.
+load cases only); these hold for perfectly plastic phases, so outside them a strength is only
+``suspect``. Every expected band is clipped to the rigorous bounds. A Poisson ratio beyond the
+stability limit nu_ij^2 < E_i / E_j (positive definite compliance) is ``violates_bounds``.
+Averaged load cases or a full matrix give the effective 6x6 stiffness, whose symmetry error and
+positive definiteness are reported (:attr:`CheckResult.stiffness`) and whose engineering
+constants are graded. A ``[check] properties`` list is validated against the names the results
+give: the check never grades nothing silently.
 
 Estimates and bounds are not design allowables: qualified test data, the applicable codes and a
 licensed engineer decide.
@@ -39,11 +43,12 @@ References
 .. [2] Pagano, N. J. (1974). Exact moduli of anisotropic laminates. In *Composite Materials*
    Vol. 2, Academic Press, 23-44 (stack constants).
 .. [3] Drucker, D. C. (1966). *J. Materials* 1, 873-910 (limit-analysis bounds).
+.. [4] Lempriere, B. M. (1968). Poisson's ratio in orthotropic materials. *AIAA J.* 6,
+   2226-2227 (nu_ij^2 < E_i / E_j; from memory).
 """
 
 from __future__ import annotations
 
-import difflib
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
 from pathlib import Path
@@ -62,7 +67,6 @@ from micromech.rve.causes import (
     Diagnosis,
     consistency_reasons,
     fit_size_error,
-    format_property,
     fraction_for_value,
     likely_causes,
     model_label,
@@ -74,12 +78,13 @@ from micromech.rve.causes import constant_of as _const
 from micromech.rve.causes import direction_of as _direction_of
 from micromech.rve.tolerances import (
     BOUND_SLACK,
-    PROPERTY_NAMES,
     Band,
+    check_selection,
     corner_plies,
     fibre_band,
     parse_tolerances,
     particle_band,
+    property_order,
     ud_base_name,
 )
 from micromech.rve.verdicts import (
@@ -87,6 +92,7 @@ from micromech.rve.verdicts import (
     VERDICTS,
     PropertyCheck,
     grade_property,
+    poisson_stability,
     worst_verdict,
 )
 
@@ -533,9 +539,12 @@ def check_case(
     Raises
     ------
     CaseFileError
-        If the case has no [rve] results or no composite to compare with.
+        If the case has no [rve] results or no composite to compare with; if ``[check]
+        properties`` is empty, names a property the results do not give (the message says
+        which load case would), or selects nothing that can be graded.
     InputError
-        For a bad tolerance, offset or strain range.
+        For a bad tolerance, offset or strain range, or a ``[check] properties`` name that is
+        no property name (the nearest valid names are suggested).
     DataFileError
         For an unreadable history file.
 
@@ -641,7 +650,7 @@ def check_case(
     simulated = dict(values)
     wanted = case.check.get("properties")
     if wanted is not None:
-        _check_selection(wanted, values, not_graded, case, where)
+        check_selection(wanted, values, not_graded, arch, where)
         values = {k: v for k, v in values.items() if k in wanted}
         not_graded = {k: v for k, v in not_graded.items() if k in wanted}
 
@@ -706,127 +715,6 @@ def _check_strain_range(value: Any) -> tuple[float, float]:
     return lo, hi
 
 
-_ORDER = (
-    *_UD_ALL, *_STACK_ALL,
-    *(f"yield_strength_{d}" for d in _VOIGT), *(f"ultimate_strength_{d}" for d in _VOIGT),
-)
-_ORDER_INDEX = {n: i for i, n in enumerate(_ORDER)}
-
-
-def property_order(name: str) -> int:
-    """Sort key of a property name in tables: moduli, Poisson ratios, yields, strengths.
-
-    Parameters
-    ----------
-    name : str
-        Property name.
-
-    Returns
-    -------
-    int
-        Its place (unknown names last).
-    """
-    return _ORDER_INDEX.get(name, len(_ORDER_INDEX))
-
-
-# ------------------------------------------------------------------------------------------
-# the [check] properties list
-
-
-def _other_family(name: str, arch: str) -> str | None:
-    """Return the name this cell gives a property named in the other family's axes."""
-    stack = arch in _STACK_ARCH
-    if name in (_UD_ALL if stack else _STACK_ALL):
-        d, lat = _direction_of(name)
-        if d is not None:
-            return property_name(arch, d, lat)
-    return None
-
-
-def _suggest(name: str) -> list[str]:
-    """Return the valid names nearest to a misspelt one.
-
-    The same letters in another case come first, then the shear modulus with its indices in
-    the other order, then the closest by spelling.
-    """
-    near = [n for n in PROPERTY_NAMES if n.lower() == name.lower()]
-    if len(name) == 3 and name[0] in "Gg":
-        near += [n for n in PROPERTY_NAMES if n == f"G{name[2]}{name[1]}"]
-    if near:
-        return near
-    lower = {n.lower(): n for n in PROPERTY_NAMES}
-    near += [lower[m] for m in difflib.get_close_matches(name.lower(), list(lower), n=3,
-                                                          cutoff=0.5)]
-    return list(dict.fromkeys(near))[:3]
-
-
-def _source_of(name: str, arch: str) -> str:
-    """Which [rve] entry gives a property (for messages)."""
-    d, lat = _direction_of(name)
-    if property_kind(name) == "strength":
-        return (f"a [[rve.load_case]] history with direction = {d!r} (averaged load cases and "
-                "[rve.stiffness] give no strengths)")
-    if lat is not None:
-        return (f"a [[rve.load_case]] history with direction = {d!r} and a lateral column in "
-                f"{lat}, or averaged load cases / [rve.stiffness] (all nine constants)")
-    return (f"a [[rve.load_case]] with direction = {d!r}, or averaged load cases / "
-            "[rve.stiffness] (all nine constants)")
-
-
-def _check_selection(
-    wanted: Sequence[str], values: Mapping[str, float], not_graded: Mapping[str, str],
-    case: Any, where: str,
-) -> None:
-    """Validate ``[check] properties`` against the names this case's results give.
-
-    Raises
-    ------
-    InputError
-        For a name that is no property name (the nearest valid names are suggested).
-    CaseFileError
-        For an empty list, a name this case's load cases do not give (saying which load case
-        would), or a list that selects nothing to grade.
-    """
-    arch = case.rve.architecture
-    if not wanted:
-        raise CaseFileError(
-            f"{where}: [check] properties = [] selects nothing to grade; list the names to "
-            "grade (e.g. [\"E1\", \"nu12\"]) or leave the key out to grade everything")
-    unknown = []
-    for n in wanted:
-        if n not in PROPERTY_NAMES:
-            near = _suggest(n)
-            hint = f" (did you mean {' or '.join(repr(x) for x in near)}?)" if near else ""
-            unknown.append(f"{n!r}{hint}")
-    if unknown:
-        raise InputError(
-            f"{where}: [check] properties: {'; '.join(unknown)} "
-            f"{'is not a property name' if len(unknown) == 1 else 'are not property names'}; "
-            f"the names are {', '.join(_UD_ALL)} for unidirectional and particulate cells, "
-            f"{', '.join(_STACK_ALL)} for crossply and stack cells, and yield_strength_x, "
-            "ultimate_strength_xy ... per load case")
-    have = sorted(values, key=property_order)
-    for n in wanted:
-        if n in values or n in not_graded:
-            continue
-        other = _other_family(n, arch)
-        if other is not None:
-            why = (f"{arch} cells name this property {other!r} ("
-                   + ("Ex ... for crossply and stack cells" if arch in _STACK_ARCH else
-                      "E1 ... with x = 1 the fibre axis for unidirectional and particulate "
-                      "cells") + ")")
-        else:
-            why = f"it needs {_source_of(n, arch)}, which this case does not have"
-        raise CaseFileError(
-            f"{where}: [check] properties: {n!r} is not given by this case's [rve] results: "
-            f"{why}; the results give {', '.join(have) or 'nothing'}")
-    if not any(n in values for n in wanted):
-        reasons = "; ".join(f"{k}: {v}" for k, v in not_graded.items() if k in wanted)
-        raise CaseFileError(
-            f"{where}: [check] properties = {list(wanted)!r} selects nothing that can be "
-            f"graded ({reasons}); add properties the results give: {', '.join(have)}")
-
-
 # ------------------------------------------------------------------------------------------
 # the stability of the Poisson ratios
 
@@ -842,54 +730,27 @@ def _poisson_stability(
     results: dict[str, PropertyCheck], simulated: Mapping[str, float],
     expect: Mapping[str, Expectation], arch: str,
 ) -> None:
-    """Grade every Poisson ratio against the stability limit nu_ij^2 < E_i / E_j.
+    """Hold every Poisson ratio to the stability limit (:func:`poisson_stability`).
 
-    The compliance of a stable elastic solid is positive definite, so each 2x2 minor
-    S_ii S_jj - S_ij^2 > 0, i.e. nu_ij^2 < E_i / E_j (Lempriere 1968, AIAA J. 6, 2226, from
-    memory). The moduli are the simulated ones where the case gives them and they lie inside
-    their own rigorous bounds, else the best estimates (a modulus that violates its bounds is
-    graded on its own and does not condemn the Poisson ratio as well). Outside the limit
-    (beyond the bound allowance) the ratio is ``violates_bounds``.
+    The moduli are the simulated ones where the case gives them and they lie inside their own
+    rigorous bounds, else the best estimates: a modulus that violates its bounds is graded on
+    its own and does not condemn the Poisson ratio as well.
     """
     for name, r in list(results.items()):
         if property_kind(name) != "poisson":
             continue
-        ei, ej = _moduli_of(arch, name)
-        mods: list[tuple[float | None, str]] = []
-        for m in (ei, ej):
+        moduli: list[tuple[str, float | None, str]] = []
+        for m in _moduli_of(arch, name):
             e = expect.get(m)
             best = None if e is None else e.estimates.get(e.best)
             if m in simulated and (e is None or _within_bounds(simulated[m], e)):
-                mods.append((simulated[m], "simulated"))
+                moduli.append((m, simulated[m], "simulated"))
             elif m in simulated:
-                mods.append((best, "best estimate; the simulated value violates its bounds"))
+                moduli.append((m, best, "best estimate; the simulated value violates its bounds"))
             else:
-                mods.append((best, "best estimate"))
-        (vi, si), (vj, sj) = mods
-        if vi is None or vj is None or not (vi > 0.0 and vj > 0.0):
-            continue
-        limit = float(np.sqrt(vi / vj))
-        if abs(r.value) <= limit * (1.0 + BOUND_SLACK):
-            continue
-        text = (
-            f"{name} = {r.value:.4g} breaks the stability limit |{name}| < sqrt({ei} / {ej}) = "
-            f"{limit:.4g} ({ei} = {format_property(vi, ei)}, {si}; {ej} = "
-            f"{format_property(vj, ej)}, {sj}): the compliance of a stable elastic solid is "
-            f"positive definite, which requires {name}^2 < {ei} / {ej} (Lempriere 1968, from "
-            "memory), so no material has this set of constants."
-        )
-        off = [m for m in (ei, ej) if m in results and results[m].verdict != "consistent"]
-        if off:
-            text += (f" {' and '.join(off)} {'is' if len(off) == 1 else 'are'} "
-                     f"{results[off[0]].verdict} as well: look there first.")
-        elif r.verdict == "consistent":
-            text += (f" {name} itself lies within its expected band: look at {ei} and {ej} "
-                     "first.")
-        else:
-            text += (" A unit mismatch between the lateral and the axial displacement (or "
-                     "strain) columns is the likely cause.")
-        kept = () if r.verdict == "consistent" else r.reasons  # "within the band" is moot
-        results[name] = replace(r, verdict="violates_bounds", reasons=(text, *kept))
+                moduli.append((m, best, "best estimate"))
+        verdicts = {m: results[m].verdict for m, _, _ in moduli if m in results}
+        results[name] = poisson_stability(r, moduli[0], moduli[1], verdicts)
 
 
 def _within_bounds(value: float, e: Expectation) -> bool:

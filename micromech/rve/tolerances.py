@@ -31,15 +31,22 @@ These numbers choose tolerances; they are not an outside reference.
 from __future__ import annotations
 
 import difflib
-from collections.abc import Iterable, Mapping
+from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from micromech.errors import InputError
+from micromech.errors import CaseFileError, InputError
 from micromech.results import ElasticConstants
-from micromech.rve.causes import STACK_PROPERTIES, UD_PROPERTIES
+from micromech.rve.causes import (
+    STACK_ARCHITECTURES,
+    STACK_PROPERTIES,
+    UD_PROPERTIES,
+    direction_of,
+    property_kind,
+    property_name,
+)
 from micromech.rve.ingest import DIRECTIONS
 
 __all__ = [
@@ -50,10 +57,12 @@ __all__ = [
     "PROPERTY_NAMES",
     "Band",
     "band_about",
+    "check_selection",
     "corner_plies",
     "fibre_band",
     "particle_band",
     "parse_tolerances",
+    "property_order",
     "ud_base_name",
 ]
 
@@ -428,3 +437,139 @@ def parse_tolerances(items: Iterable[str] | Mapping[str, float]) -> dict[str, fl
             raise InputError(f"tolerance {key} = {val!r} must lie in [0, 1) (a relative tolerance)")
         out[key] = t
     return out
+
+
+# ------------------------------------------------------------------------------------------
+# the order of names in tables, and the [check] properties list
+
+_ORDER_DIRECTIONS = ("x", "y", "z", "yz", "xz", "xy")
+_ORDER = (
+    *UD_PROPERTIES, *STACK_PROPERTIES,
+    *(f"yield_strength_{d}" for d in _ORDER_DIRECTIONS),
+    *(f"ultimate_strength_{d}" for d in _ORDER_DIRECTIONS),
+)
+_ORDER_INDEX = {n: i for i, n in enumerate(_ORDER)}
+
+
+def property_order(name: str) -> int:
+    """Sort key of a property name in tables: moduli, Poisson ratios, yields, strengths.
+
+    Parameters
+    ----------
+    name : str
+        Property name.
+
+    Returns
+    -------
+    int
+        Its place (unknown names last).
+    """
+    return _ORDER_INDEX.get(name, len(_ORDER_INDEX))
+
+
+def _other_family(name: str, arch: str) -> str | None:
+    """Return the name this cell gives a property named in the other family's axes."""
+    stack = arch in STACK_ARCHITECTURES
+    if name in (UD_PROPERTIES if stack else STACK_PROPERTIES):
+        d, lat = direction_of(name)
+        if d is not None:
+            return property_name(arch, d, lat)
+    return None
+
+
+def _suggest(name: str) -> list[str]:
+    """Return the valid names nearest to a misspelt one.
+
+    The same letters in another case come first, then the shear modulus with its indices in
+    the other order, then the closest by spelling.
+    """
+    near = [n for n in PROPERTY_NAMES if n.lower() == name.lower()]
+    if len(name) == 3 and name[0] in "Gg":
+        near += [n for n in PROPERTY_NAMES if n == f"G{name[2]}{name[1]}"]
+    if near:
+        return near
+    lower = {n.lower(): n for n in PROPERTY_NAMES}
+    near += [lower[m] for m in difflib.get_close_matches(name.lower(), list(lower), n=3,
+                                                          cutoff=0.5)]
+    return list(dict.fromkeys(near))[:3]
+
+
+def _source_of(name: str) -> str:
+    """Which [rve] entry gives a property (for messages)."""
+    d, lat = direction_of(name)
+    if property_kind(name) == "strength":
+        return (f"a [[rve.load_case]] history with direction = {d!r} (averaged load cases and "
+                "[rve.stiffness] give no strengths)")
+    if lat is not None:
+        return (f"a [[rve.load_case]] history with direction = {d!r} and a lateral column in "
+                f"{lat}, or averaged load cases / [rve.stiffness] (all nine constants)")
+    return (f"a [[rve.load_case]] with direction = {d!r}, or averaged load cases / "
+            "[rve.stiffness] (all nine constants)")
+
+
+def check_selection(
+    wanted: Sequence[str], given: Iterable[str], not_graded: Mapping[str, str],
+    architecture: str, where: str = "case",
+) -> None:
+    """Validate a ``[check] properties`` list against the names a case's results give.
+
+    Parameters
+    ----------
+    wanted : sequence of str
+        The names listed.
+    given : iterable of str
+        The names the results give a value for.
+    not_graded : Mapping of str to str
+        Names a load case gives without a value (a yield strength the curve never reaches),
+        with the reason.
+    architecture : str
+        RVE architecture (sets the naming: E1 ... or Ex ...).
+    where : str
+        The case, for messages.
+
+    Raises
+    ------
+    InputError
+        For a name that is no property name (the nearest valid names are suggested).
+    CaseFileError
+        For an empty list, a name the results do not give (saying which load case, or which
+        name, would give it), or a list that selects nothing that can be graded.
+    """
+    have = sorted(given, key=property_order)
+    if not wanted:
+        raise CaseFileError(
+            f"{where}: [check] properties = [] selects nothing to grade; list the names to "
+            "grade (e.g. [\"E1\", \"nu12\"]) or leave the key out to grade everything")
+    unknown = []
+    for n in wanted:
+        if n not in PROPERTY_NAMES:
+            near = _suggest(n)
+            hint = f" (did you mean {' or '.join(repr(x) for x in near)}?)" if near else ""
+            unknown.append(f"{n!r}{hint}")
+    if unknown:
+        raise InputError(
+            f"{where}: [check] properties: {'; '.join(unknown)} "
+            f"{'is not a property name' if len(unknown) == 1 else 'are not property names'}; "
+            f"the names are {', '.join(UD_PROPERTIES)} for unidirectional and particulate "
+            f"cells, {', '.join(STACK_PROPERTIES)} for crossply and stack cells, and "
+            "yield_strength_x, ultimate_strength_xy ... per load case")
+    for n in wanted:
+        if n in have or n in not_graded:
+            continue
+        other = _other_family(n, architecture)
+        if other is not None:
+            why = (f"{architecture} cells name this property {other!r} ("
+                   + ("Ex ... for crossply and stack cells"
+                      if architecture in STACK_ARCHITECTURES else
+                      "E1 ... with x = 1 the fibre axis for unidirectional and particulate "
+                      "cells") + ")")
+        else:
+            why = f"it needs {_source_of(n)}, which this case does not have"
+        raise CaseFileError(
+            f"{where}: [check] properties: {n!r} is not given by this case's [rve] results: "
+            f"{why}; the results give {', '.join(have) or 'nothing'}")
+    if not any(n in have for n in wanted):
+        reasons = "; ".join(f"{k}: {r}" for k, r in not_graded.items() if k in wanted)
+        raise CaseFileError(
+            f"{where}: [check] properties = {list(wanted)!r} selects nothing that can be "
+            f"graded ({reasons}); add properties the results give: {', '.join(have)}")

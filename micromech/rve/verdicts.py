@@ -4,11 +4,13 @@ Each simulated property gets one of three verdicts:
 
 ``violates_bounds``
     Outside a rigorous bound (Voigt/Reuss of the constituents, valid for any arrangement). No
-    correct model of these constituents at this fraction can give the value. The reasons list
-    the likely causes in order: a unit slip (ratio to the estimate near a power of 1000), a wrong
-    area or length (ratio near a ratio of the RVE's faces or edges), boundary conditions (too
-    stiff: over-constrained; too soft: free faces), a fibre fraction other than the declared one
-    (the fraction that would give the value under the best estimate is solved for).
+    correct model of these constituents at this fraction can give the value. For a Poisson
+    ratio: beyond the stability limit nu_ij^2 < E_i / E_j (:func:`poisson_stability`). The
+    reasons list the likely causes in order: a unit slip (ratio to the estimate near a power
+    of 1000), a wrong area or length (ratio near a ratio of the RVE's faces or edges),
+    boundary conditions (too stiff: over-constrained; too soft: free faces), a fibre fraction
+    other than the declared one (the fraction that would give the value under the best
+    estimate is solved for; when none does, it is listed as ruled out).
 ``suspect``
     Inside the rigorous bounds, but outside the Hashin-Shtrikman band (where its assumptions
     hold), outside the expected band around the best estimate (per property and per fraction,
@@ -62,6 +64,7 @@ __all__ = [
     "VERDICTS",
     "PropertyCheck",
     "grade_property",
+    "poisson_stability",
     "worst_verdict",
 ]
 
@@ -388,6 +391,83 @@ def grade_property(
         name=name, value=v, lower_bound=lb, upper_bound=ub, estimates=est,
         best_model=best if best_value is not None else None, band=band_t, hs_band=hs,
         verdict=verdict, reasons=tuple(reasons),
+    )
+
+
+def poisson_stability(
+    result: PropertyCheck,
+    modulus_i: tuple[str, float | None, str],
+    modulus_j: tuple[str, float | None, str],
+    moduli_verdicts: Mapping[str, str] | None = None,
+    *,
+    bound_slack: float = BOUND_SLACK,
+) -> PropertyCheck:
+    """Hold a graded Poisson ratio nu_ij to the stability limit nu_ij^2 < E_i / E_j.
+
+    The compliance of a stable elastic solid is positive definite, so each 2x2 minor
+    S_ii S_jj - S_ij^2 > 0, which for S_ii = 1 / E_i, S_ij = -nu_ij / E_i reads
+    nu_ij^2 < E_i / E_j. Beyond sqrt(E_i / E_j) by more than ``bound_slack`` the ratio is
+    ``violates_bounds``, with the limit stated first among the reasons.
+
+    Parameters
+    ----------
+    result : PropertyCheck
+        The graded Poisson ratio nu_ij (load axis i, lateral axis j).
+    modulus_i, modulus_j : (str, float or None, str)
+        Name, value (Pa) and source (e.g. ``"simulated"``) of E_i and E_j; a missing or
+        non-positive modulus leaves the result as it is.
+    moduli_verdicts : Mapping of str to str, optional
+        Verdicts of the moduli, where graded: a modulus that is not consistent is named as the
+        place to look first.
+    bound_slack : float
+        Relative allowance on the limit.
+
+    Returns
+    -------
+    PropertyCheck
+        The result, ``violates_bounds`` when the limit is broken.
+
+    References
+    ----------
+    Lempriere, B. M. (1968). Poisson's ratio in orthotropic materials. *AIAA J.* 6, 2226-2227
+    (from memory).
+
+    Examples
+    --------
+    >>> r = grade_property("nu12", 256.0, estimates={"mori_tanaka": 0.27})
+    >>> poisson_stability(r, ("E1", 41e9, "simulated"), ("E2", 10e9, "simulated")).verdict
+    'violates_bounds'
+    """
+    name = result.name
+    (ei, vi, si), (ej, vj, sj) = modulus_i, modulus_j
+    if vi is None or vj is None or not (vi > 0.0 and vj > 0.0):
+        return result
+    limit = float(np.sqrt(vi / vj))
+    if abs(result.value) <= limit * (1.0 + bound_slack):
+        return result
+    text = (
+        f"{name} = {result.value:.4g} breaks the stability limit |{name}| < sqrt({ei} / {ej}) = "
+        f"{limit:.4g} ({ei} = {_fmt(vi, ei)}, {si}; {ej} = {_fmt(vj, ej)}, {sj}): the "
+        f"compliance of a stable elastic solid is positive definite, which requires {name}^2 "
+        f"< {ei} / {ej} (Lempriere 1968, from memory), so no material has this set of "
+        "constants."
+    )
+    off = [m for m in (ei, ej) if (moduli_verdicts or {}).get(m, "consistent") != "consistent"]
+    if off:
+        verdict = (moduli_verdicts or {})[off[0]]
+        text += (f" {' and '.join(off)} {'is' if len(off) == 1 else 'are'} {verdict} as well: "
+                 "look there first.")
+    elif result.verdict == "consistent":
+        text += f" {name} itself lies within its expected band: look at {ei} and {ej} first."
+    else:
+        text += (" A unit mismatch between the lateral and the axial displacement (or strain) "
+                 "columns is the likely cause.")
+    kept = () if result.verdict == "consistent" else result.reasons  # "within the band" is moot
+    return PropertyCheck(
+        name=name, value=result.value, lower_bound=result.lower_bound,
+        upper_bound=result.upper_bound, estimates=result.estimates,
+        best_model=result.best_model, band=result.band, hs_band=result.hs_band,
+        verdict="violates_bounds", reasons=(text, *kept),
     )
 
 
