@@ -174,3 +174,38 @@ def test_corner_plies_take_the_ends_of_each_band():
         assert float(soft.get(name)) == pytest.approx(float(soft_end), rel=1e-12)
         assert float(high.get(name)) == pytest.approx(float(b.high), rel=1e-12)
         assert float(low.get(name)) == pytest.approx(float(b.low), rel=1e-12)
+
+
+# --- the [check] properties list (issue 6 of the user trial) --------------------------------
+
+
+def test_check_selection_accepts_names_the_results_give():
+    from micromech.rve.tolerances import check_selection
+
+    check_selection(["E1", "nu12"], ["E1", "E2", "nu12"], {}, "unidirectional")
+
+
+def test_check_selection_suggests_other_case_and_swapped_indices():
+    from micromech.rve.tolerances import check_selection
+
+    with pytest.raises(InputError, match=r"'gXY' \(did you mean 'Gxy'\?\) is not a property"):
+        check_selection(["gXY"], ["Gxy"], {}, "crossply")
+    with pytest.raises(InputError, match=r"'G32' \(did you mean 'G23'\?\)"):
+        check_selection(["G32"], ["G23"], {}, "unidirectional")
+
+
+def test_check_selection_names_the_load_case_of_a_missing_poisson_ratio():
+    from micromech.errors import CaseFileError
+    from micromech.rve.tolerances import check_selection
+
+    with pytest.raises(CaseFileError, match=r"'nuyz' .* direction = 'y' and a lateral column "
+                                            r"in z"):
+        check_selection(["nuyz"], ["Ex", "nuxy"], {}, "crossply", "demo.toml")
+
+
+def test_property_order_puts_moduli_before_poisson_ratios_and_strengths():
+    from micromech.rve.tolerances import property_order
+
+    names = ["ultimate_strength_x", "nu12", "yield_strength_x", "E2", "E1", "unknown"]
+    assert sorted(names, key=property_order) == [
+        "E1", "E2", "nu12", "yield_strength_x", "ultimate_strength_x", "unknown"]

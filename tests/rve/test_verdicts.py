@@ -239,3 +239,35 @@ def test_strength_inside_is_not_said_to_lie_within_rigorous_bounds():
     assert "within the rigorous bounds" not in r.reasons[0]
     assert "lies below the limit-analysis upper bound 1.9 GPa" in r.reasons[0]
     assert "brittle or damage model" in r.reasons[0]
+
+
+# --- the stability limit of a Poisson ratio: nu_ij^2 < E_i / E_j (positive definite
+# compliance; Lempriere 1968, AIAA J. 6, 2226, from memory); invented ply E1 40 GPa, E2 10 GPa
+
+def test_minor_poisson_ratio_within_the_stability_limit_is_left_alone():
+    from micromech.rve.verdicts import poisson_stability
+
+    r = grade_property("nu21", 0.45, estimates={"mori_tanaka": 0.07})  # limit sqrt(1/4) = 0.5
+    out = poisson_stability(r, ("E2", 10e9, "simulated"), ("E1", 40e9, "simulated"))
+    assert out is r
+
+
+def test_minor_poisson_ratio_beyond_the_stability_limit_violates_bounds():
+    from micromech.rve.verdicts import poisson_stability
+
+    r = grade_property("nu21", 0.6, estimates={"mori_tanaka": 0.07})
+    out = poisson_stability(r, ("E2", 10e9, "simulated"), ("E1", 40e9, "simulated"))
+    assert out.verdict == "violates_bounds"
+    assert out.reasons[0].startswith("nu21 = 0.6 breaks the stability limit |nu21| < "
+                                     "sqrt(E2 / E1) = 0.5")
+
+
+def test_stability_failure_of_a_ratio_inside_its_band_points_at_the_moduli():
+    from micromech.rve.verdicts import poisson_stability
+
+    r = grade_property("nu12", 0.27, estimates={"mori_tanaka": 0.27})  # consistent
+    out = poisson_stability(r, ("E1", 1e9, "simulated"), ("E2", 40e9, "simulated"),
+                            {"E1": "suspect"})
+    assert out.verdict == "violates_bounds"
+    assert "E1 is suspect as well: look there first." in out.reasons[0]
+    assert len(out.reasons) == 1  # "lies within the band" no longer tells the story
