@@ -15,9 +15,6 @@ name and the table, e.g. ``case.toml: [composite] unknown key 'volume_fracton'; 
 
 from __future__ import annotations
 
-import math
-from collections.abc import Iterable, Iterator
-from contextlib import contextmanager
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -25,7 +22,18 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from micromech.errors import CaseFileError, MicromechError, RegistryError, suggest
+from micromech.case_fields import (
+    CaseContext,
+    check_keys,
+    choice,
+    positive,
+    quantity,
+    six_values,
+    table_of,
+    text,
+    unit_factor,
+)
+from micromech.errors import CaseFileError, RegistryError, suggest
 from micromech.homogenize.estimate import MODEL_KEYS
 from micromech.materials.composite import (
     ARRANGEMENTS,
@@ -43,9 +51,8 @@ from micromech.materials.models import (
     TransverselyIsotropic,
     material_from_dict,
 )
-from micromech.materials.registry import Registry, default_registry
+from micromech.materials.registry import Registry
 from micromech.resources import read_toml
-from micromech.units import parse_quantity
 
 __all__ = [
     "Case",
@@ -261,109 +268,22 @@ class Case:
     description: str = ""
 
 
-# --- helpers ----------------------------------------------------------------------------------
-
-
-class _Ctx:
-    """Carries the file label and registry while parsing."""
-
-    def __init__(self, label: str, directory: Path, registry: Registry | None) -> None:
-        self.label = label
-        self.directory = directory
-        self._registry = registry
-
-    @property
-    def registry(self) -> Registry:
-        return self._registry if self._registry is not None else default_registry()
-
-    def error(self, table: str, message: str) -> CaseFileError:
-        return CaseFileError(f"{self.label}: {table} {message}")
-
-    @contextmanager
-    def prefix(self, table: str) -> Iterator[None]:
-        """Re-raise the project's errors with the file and table in front."""
-        try:
-            yield
-        except CaseFileError:
-            raise
-        except MicromechError as exc:
-            if str(exc).startswith(f"{self.label}: "):
-                raise  # already placed by an inner prefix
-            raise type(exc)(f"{self.label}: {table} {exc}") from None
-
-
-def _check_keys(ctx: _Ctx, table: dict[str, Any], allowed: Iterable[str], where: str) -> None:
-    allowed = tuple(allowed)
-    for key in table:
-        if key not in allowed:
-            hint = suggest(key, allowed) or f"; valid keys: {', '.join(allowed)}"
-            raise ctx.error(where, f"unknown key {key!r}{hint}")
-
-
-def _table(ctx: _Ctx, value: Any, where: str) -> dict[str, Any]:
-    if not isinstance(value, dict):
-        raise ctx.error(where, f"must be a table, got {value!r}")
-    return value
-
-
-def _text(ctx: _Ctx, value: Any, where: str, key: str) -> str:
-    if not isinstance(value, str) or not value.strip():
-        raise ctx.error(where, f"{key} must be non-empty text, got {value!r}")
-    return value.strip()
-
-
-def _choice(ctx: _Ctx, value: Any, options: Iterable[str], where: str, key: str) -> str:
-    options = tuple(options)
-    if value not in options:
-        raise ctx.error(where, f"{key} = {value!r} is not one of {', '.join(options)}"
-                               f"{suggest(value, options)}")
-    return str(value)
-
-
-def _quantity(ctx: _Ctx, value: Any, kind: str, where: str, key: str) -> float:
-    with ctx.prefix(where):
-        x = parse_quantity(value, kind, key)
-    if not math.isfinite(x):
-        raise ctx.error(where, f"{key} = {value!r} must be finite")
-    return x
-
-
-def _positive(ctx: _Ctx, value: Any, kind: str, where: str, key: str) -> float:
-    x = _quantity(ctx, value, kind, where, key)
-    if not x > 0.0:
-        raise ctx.error(where, f"{key} = {value!r} must be positive")
-    return x
-
-
-def _unit_factor(ctx: _Ctx, unit: Any, kinds: tuple[str, ...], where: str) -> tuple[float, str]:
-    if not isinstance(unit, str) or not unit.strip():
-        raise ctx.error(where, f"unit must be text such as 'N' or 'um', got {unit!r}")
-    last: MicromechError | None = None
-    for kind in kinds:
-        try:
-            return parse_quantity(f"1 {unit}", kind, "unit"), kind
-        except MicromechError as exc:
-            last = exc
-    assert last is not None
-    raise type(last)(f"{ctx.label}: {where} unit {unit!r} is not {' or '.join(kinds)}: {last}")
-
-
 # --- sections ---------------------------------------------------------------------------------
 
 
-def _material(ctx: _Ctx, value: Any, where: str) -> Material:
+def _material(ctx: CaseContext, value: Any, where: str) -> Material:
     label = f"{ctx.label}: {where}"
     if isinstance(value, str):
         try:
             return ctx.registry[value]
         except RegistryError as exc:
             raise RegistryError(f"{label} {exc}") from None
-    table = dict(_table(ctx, value, where))
-    _check_keys(ctx, table, _MATERIAL_KEYS, where)
+    table = dict(table_of(ctx, value, where))
+    check_keys(ctx, table, _MATERIAL_KEYS, where)
     return _resolve(ctx, table, label, name=where.strip("[]"))
 
 
-def _resolve(ctx: _Ctx, table: dict[str, Any], label: str, **defaults: str) -> Material:
+def _resolve(ctx: CaseContext, table: dict[str, Any], label: str, **defaults: str) -> Material:
     """Build a registry entry (``use = KEY`` plus overrides) or inline constants (``defaults``)."""
     if "use" in table:
         return ctx.registry.resolve(table, label=label)
@@ -371,30 +291,30 @@ def _resolve(ctx: _Ctx, table: dict[str, Any], label: str, **defaults: str) -> M
 
 
 def _composite(
-    ctx: _Ctx, value: Any, fibre: Material | None, matrix: Material | None
+    ctx: CaseContext, value: Any, fibre: Material | None, matrix: Material | None
 ) -> Composite | None:
     where = "[composite]"
-    table = _table(ctx, value, where)
-    _check_keys(ctx, table, _COMPOSITE_KEYS, where)
+    table = table_of(ctx, value, where)
+    check_keys(ctx, table, _COMPOSITE_KEYS, where)
     if "volume_fraction" in table and "weight_fraction" in table:
         raise ctx.error(where, "give volume_fraction or weight_fraction, not both")
     if "volume_fraction" not in table and "weight_fraction" not in table:
         raise ctx.error(where, "missing required key 'volume_fraction' (or 'weight_fraction'): "
                                "the fibre fraction of the composite")
-    inclusion = _choice(ctx, table.get("inclusion", "continuous"), INCLUSIONS, where, "inclusion")
-    arrangement = _choice(ctx, table.get("arrangement", "random"), ARRANGEMENTS, where,
+    inclusion = choice(ctx, table.get("inclusion", "continuous"), INCLUSIONS, where, "inclusion")
+    arrangement = choice(ctx, table.get("arrangement", "random"), ARRANGEMENTS, where,
                           "arrangement")
-    orientation = _choice(ctx, table.get("orientation", "aligned"), ORIENTATIONS, where,
+    orientation = choice(ctx, table.get("orientation", "aligned"), ORIENTATIONS, where,
                           "orientation")
     with ctx.prefix(where):
         check_orientation(orientation, inclusion, arrangement)
     aspect = table.get("aspect_ratio")
     if aspect is not None:
-        aspect = _positive(ctx, aspect, "dimensionless", where, "aspect_ratio")
-    void = _quantity(ctx, table.get("void_fraction", 0.0), "dimensionless", where,
+        aspect = positive(ctx, aspect, "dimensionless", where, "aspect_ratio")
+    void = quantity(ctx, table.get("void_fraction", 0.0), "dimensionless", where,
                      "void_fraction")
     key = "volume_fraction" if "volume_fraction" in table else "weight_fraction"
-    frac = _quantity(ctx, table[key], "dimensionless", where, key)
+    frac = quantity(ctx, table[key], "dimensionless", where, key)
     with ctx.prefix(where):
         if fibre is None or matrix is None:
             # no composite without both constituents (a geometry-only case), but the fraction
@@ -412,11 +332,11 @@ def _composite(
         )
 
 
-def _ply(ctx: _Ctx, value: Any) -> tuple[Material | None, Strengths | None, str]:
+def _ply(ctx: CaseContext, value: Any) -> tuple[Material | None, Strengths | None, str]:
     where = "[ply]"
-    table = dict(_table(ctx, value, where))
-    _check_keys(ctx, table, _MATERIAL_KEYS + STRENGTH_KEYS + ("model",), where)
-    model = _choice(ctx, table.pop("model", "mori_tanaka"), ESTIMATE_MODELS, where, "model")
+    table = dict(table_of(ctx, value, where))
+    check_keys(ctx, table, _MATERIAL_KEYS + STRENGTH_KEYS + ("model",), where)
+    model = choice(ctx, table.pop("model", "mori_tanaka"), ESTIMATE_MODELS, where, "model")
     flat = {k: table.pop(k) for k in STRENGTH_KEYS if k in table}
     nested = table.get("strengths")
     if nested is not None and not isinstance(nested, dict):
@@ -435,32 +355,32 @@ def _ply(ctx: _Ctx, value: Any) -> tuple[Material | None, Strengths | None, str]
     return ply, ply.strengths, model
 
 
-def _laminate(ctx: _Ctx, value: Any) -> LaminateSpec:
+def _laminate(ctx: CaseContext, value: Any) -> LaminateSpec:
     where = "[laminate]"
-    table = _table(ctx, value, where)
-    _check_keys(ctx, table, _LAMINATE_KEYS, where)
+    table = table_of(ctx, value, where)
+    check_keys(ctx, table, _LAMINATE_KEYS, where)
     if "layup" not in table:
         raise ctx.error(where, "missing required key 'layup' (e.g. layup = \"[0/90]s\")")
     if "ply_thickness" not in table:
         raise ctx.error(where, "missing required key 'ply_thickness' (e.g. \"0.25 mm\")")
-    layup = _text(ctx, table["layup"], where, "layup")
-    t = _positive(ctx, table["ply_thickness"], "length", where, "ply_thickness")
+    layup = text(ctx, table["layup"], where, "layup")
+    t = positive(ctx, table["ply_thickness"], "length", where, "ply_thickness")
     loads = dict.fromkeys(LOAD_KEYS, 0.0)
     given = "loads" in table
     if given:
         lw = "[laminate.loads]"
-        lt = _table(ctx, table["loads"], lw)
-        _check_keys(ctx, lt, LOAD_KEYS, lw)
+        lt = table_of(ctx, table["loads"], lw)
+        check_keys(ctx, lt, LOAD_KEYS, lw)
         for k, v in lt.items():
-            loads[k] = _quantity(ctx, v, LOAD_KEYS[k], lw, k)
+            loads[k] = quantity(ctx, v, LOAD_KEYS[k], lw, k)
     return LaminateSpec(layup=layup, ply_thickness=t, loads=loads, loads_given=given)
 
 
-def _column(ctx: _Ctx, value: Any, where: str, kinds: tuple[str, ...], default_unit: str | None,
-            lateral: bool = False) -> ColumnSpec:
-    table = _table(ctx, value, where)
+def _column(ctx: CaseContext, value: Any, where: str, kinds: tuple[str, ...],
+            default_unit: str | None, lateral: bool = False) -> ColumnSpec:
+    table = table_of(ctx, value, where)
     keys = ("column", "unit", "direction") if lateral else ("column", "unit")
-    _check_keys(ctx, table, keys, where)
+    check_keys(ctx, table, keys, where)
     if "column" not in table:
         raise ctx.error(where, "missing required key 'column' (header name or 1-based number)")
     col = table["column"]
@@ -473,40 +393,25 @@ def _column(ctx: _Ctx, value: Any, where: str, kinds: tuple[str, ...], default_u
     unit = table.get("unit", default_unit)
     if unit is None:
         raise ctx.error(where, "missing required key 'unit'")
-    factor, kind = _unit_factor(ctx, unit, kinds, where)
+    factor, kind = unit_factor(ctx, unit, kinds, where)
     direction = None
     if lateral:
         if "direction" not in table:
             raise ctx.error(where, "missing required key 'direction' (x, y or z)")
-        direction = _choice(ctx, table["direction"], ("x", "y", "z"), where, "direction")
+        direction = choice(ctx, table["direction"], ("x", "y", "z"), where, "direction")
     return ColumnSpec(column=col, unit=str(unit), factor=factor, kind=kind, direction=direction)
 
 
-def _six(ctx: _Ctx, value: Any, where: str, key: str, factor: float) -> Array:
-    if not isinstance(value, list) or len(value) != 6:
-        raise ctx.error(where, f"{key} must be a list of 6 values (Voigt order 11, 22, 33, 23, "
-                               f"13, 12), got {value!r}")
-    out = np.empty(6)
-    for i, v in enumerate(value):
-        if isinstance(v, bool) or not isinstance(v, int | float):
-            raise ctx.error(where, f"{key}[{i + 1}] = {v!r} must be a number")
-        out[i] = float(v) * factor
-    if not np.all(np.isfinite(out)):
-        raise ctx.error(where, f"{key} values must be finite")
-    out.flags.writeable = False
-    return out
-
-
-def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -> LoadCase:
+def _load_case(ctx: CaseContext, value: Any, index: int, rve_stress_unit: str | None) -> LoadCase:
     where = f"[[rve.load_case]] #{index}"
-    t = _table(ctx, value, where)
-    _check_keys(ctx, t, _LOAD_CASE_KEYS, where)
+    t = table_of(ctx, value, where)
+    check_keys(ctx, t, _LOAD_CASE_KEYS, where)
     averaged = isinstance(t.get("stress"), list) or isinstance(t.get("strain"), list)
     direction = t.get("direction")
     if direction is not None or not averaged:
         if direction is None:
             raise ctx.error(where, "missing required key 'direction' (x, y, z, xy, yz or xz)")
-        direction = _choice(ctx, direction, DIRECTIONS, where, "direction")
+        direction = choice(ctx, direction, DIRECTIONS, where, "direction")
     if averaged:
         stray = [k for k in ("file", "force", "displacement", "lateral", "delimiter",
                              "skip_rows", "strain_range", "offset") if k in t]
@@ -517,11 +422,11 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
             raise ctx.error(where, "averaged values need both stress = [6 values] and "
                                    "strain = [6 values]")
         unit = t.get("stress_unit", rve_stress_unit or "Pa")
-        factor, _ = _unit_factor(ctx, unit, ("pressure",), where + " stress_unit")
+        factor, _ = unit_factor(ctx, unit, ("pressure",), where + " stress_unit")
         return LoadCase(
             direction=direction,
-            stress_values=_six(ctx, t["stress"], where, "stress", factor),
-            strain_values=_six(ctx, t["strain"], where, "strain", 1.0),
+            stress_values=six_values(ctx, t["stress"], where, "stress", factor),
+            strain_values=six_values(ctx, t["strain"], where, "strain", 1.0),
         )
     if "stress_unit" in t:
         raise ctx.error(where, "stress_unit applies to averaged stress lists only; give the unit "
@@ -529,7 +434,7 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
     if "file" not in t:
         raise ctx.error(where, "missing required key 'file' (or give averaged stress = [...] "
                                "and strain = [...])")
-    fname = _text(ctx, t["file"], where, "file")
+    fname = text(ctx, t["file"], where, "file")
     path = (ctx.directory / fname).resolve()
     if not path.is_file():
         raise ctx.error(where, f"file {fname!r} not found (looked for {path})")
@@ -577,55 +482,55 @@ def _load_case(ctx: _Ctx, value: Any, index: int, rve_stress_unit: str | None) -
                     skip_rows=skip, strain_range=rng, offset=off)
 
 
-def _both(ctx: _Ctx, table: dict[str, Any], where: str, a: str, b: str) -> None:
+def _both(ctx: CaseContext, table: dict[str, Any], where: str, a: str, b: str) -> None:
     """Raise unless the two column keys that go together are both given."""
     for key in (a, b):
         if key not in table:
             raise ctx.error(where, f"missing required key {key!r} ({a} and {b} go together)")
 
 
-def _offset(ctx: _Ctx, value: Any, where: str) -> float:
+def _offset(ctx: CaseContext, value: Any, where: str) -> float:
     """Read the strain offset of the yield line: a strain strictly between 0 and 1."""
-    off = _quantity(ctx, value, "dimensionless", where, "offset")
+    off = quantity(ctx, value, "dimensionless", where, "offset")
     if not 0.0 < off < 1.0:
         raise ctx.error(where, f"offset = {value!r} must be a strain between 0 and 1, exclusive "
                                "(e.g. 0.002 or \"0.2 %\")")
     return off
 
 
-def _strain_range(ctx: _Ctx, value: Any, where: str) -> tuple[float, float] | None:
+def _strain_range(ctx: CaseContext, value: Any, where: str) -> tuple[float, float] | None:
     if value is None:
         return None
     if not isinstance(value, list) or len(value) != 2:
         raise ctx.error(where, f"strain_range must be [lo, hi], got {value!r}")
-    lo = _quantity(ctx, value[0], "dimensionless", where, "strain_range[1]")
-    hi = _quantity(ctx, value[1], "dimensionless", where, "strain_range[2]")
+    lo = quantity(ctx, value[0], "dimensionless", where, "strain_range[1]")
+    hi = quantity(ctx, value[1], "dimensionless", where, "strain_range[2]")
     if not 0.0 <= lo < hi:
         raise ctx.error(where, f"strain_range = {value!r} must satisfy 0 <= lo < hi")
     return (lo, hi)
 
 
-def _rve(ctx: _Ctx, value: Any) -> RveSpec:
+def _rve(ctx: CaseContext, value: Any) -> RveSpec:
     where = "[rve]"
-    t = _table(ctx, value, where)
-    _check_keys(ctx, t, _RVE_KEYS, where)
+    t = table_of(ctx, value, where)
+    check_keys(ctx, t, _RVE_KEYS, where)
     if "architecture" not in t:
         raise ctx.error(where, "missing required key 'architecture' "
                                f"({', '.join(ARCHITECTURES)})")
-    arch = _choice(ctx, t["architecture"], ARCHITECTURES, where, "architecture")
+    arch = choice(ctx, t["architecture"], ARCHITECTURES, where, "architecture")
     size = None
     if "size" in t:
         sw = "[rve.size]"
-        st = _table(ctx, t["size"], sw)
-        _check_keys(ctx, st, ("x", "y", "z"), sw)
+        st = table_of(ctx, t["size"], sw)
+        check_keys(ctx, st, ("x", "y", "z"), sw)
         missing = [k for k in ("x", "y", "z") if k not in st]
         if missing:
             raise ctx.error(sw, f"missing required key {missing[0]!r} (size needs x, y and z)")
-        size = tuple(_positive(ctx, st[k], "length", sw, k) for k in ("x", "y", "z"))
-    layup = _text(ctx, t["layup"], where, "layup") if "layup" in t else None
+        size = tuple(positive(ctx, st[k], "length", sw, k) for k in ("x", "y", "z"))
+    layup = text(ctx, t["layup"], where, "layup") if "layup" in t else None
     stress_unit = t.get("stress_unit")
     if stress_unit is not None:
-        _unit_factor(ctx, stress_unit, ("pressure",), where + " stress_unit")
+        unit_factor(ctx, stress_unit, ("pressure",), where + " stress_unit")
     cases: list[LoadCase] = []
     raw_cases = t.get("load_case", [])
     if isinstance(raw_cases, dict):
@@ -648,15 +553,15 @@ def _rve(ctx: _Ctx, value: Any) -> RveSpec:
     stiffness = None
     if "stiffness" in t:
         sw = "[rve.stiffness]"
-        stt = _table(ctx, t["stiffness"], sw)
-        _check_keys(ctx, stt, ("matrix", "unit"), sw)
+        stt = table_of(ctx, t["stiffness"], sw)
+        check_keys(ctx, stt, ("matrix", "unit"), sw)
         if "matrix" not in stt:
             raise ctx.error(sw, "missing required key 'matrix' (6 rows of 6 values)")
-        factor, _ = _unit_factor(ctx, stt.get("unit", "Pa"), ("pressure",), sw)
+        factor, _ = unit_factor(ctx, stt.get("unit", "Pa"), ("pressure",), sw)
         rows = stt["matrix"]
         if not isinstance(rows, list) or len(rows) != 6:
             raise ctx.error(sw, "matrix must have 6 rows of 6 values")
-        stiffness = np.vstack([_six(ctx, r, sw, f"matrix row {i}", factor)
+        stiffness = np.vstack([six_values(ctx, r, sw, f"matrix row {i}", factor)
                                for i, r in enumerate(rows, start=1)])
         stiffness.flags.writeable = False
     return RveSpec(architecture=arch, size=size, layup=layup,  # type: ignore[arg-type]
@@ -680,7 +585,7 @@ def _property_names(architecture: str | None) -> tuple[tuple[str, ...], str]:
     return (*elastic, *strengths), f"a {architecture} cell"
 
 
-def _property(ctx: _Ctx, name: str, names: tuple[str, ...], of: str, where: str,
+def _property(ctx: CaseContext, name: str, names: tuple[str, ...], of: str, where: str,
               key: str) -> str:
     if name in names:
         return name
@@ -698,10 +603,10 @@ def _property(ctx: _Ctx, name: str, names: tuple[str, ...], of: str, where: str,
                            "and yield_strength_D, ultimate_strength_D with D a load direction)")
 
 
-def _check_section(ctx: _Ctx, value: Any, architecture: str | None = None) -> dict[str, Any]:
+def _check_section(ctx: CaseContext, value: Any, architecture: str | None = None) -> dict[str, Any]:
     where = "[check]"
-    t = _table(ctx, value, where)
-    _check_keys(ctx, t, _CHECK_KEYS, where)
+    t = table_of(ctx, value, where)
+    check_keys(ctx, t, _CHECK_KEYS, where)
     names, of = _property_names(architecture)
     out: dict[str, Any] = {}
     if "offset" in t:
@@ -710,11 +615,11 @@ def _check_section(ctx: _Ctx, value: Any, architecture: str | None = None) -> di
         out["strain_range"] = _strain_range(ctx, t["strain_range"], where)
     if "tolerance" in t:
         tw = "[check.tolerance]"
-        tt = _table(ctx, t["tolerance"], tw)
+        tt = table_of(ctx, t["tolerance"], tw)
         tol: dict[str, float] = {}
         for k, v in tt.items():
             _property(ctx, k, names, of, tw, "tolerance for")
-            x = _quantity(ctx, v, "dimensionless", tw, k)
+            x = quantity(ctx, v, "dimensionless", tw, k)
             if not 0.0 <= x < 1.0:
                 raise ctx.error(tw, f"{k} = {v!r} must be a relative tolerance in [0, 1) (e.g. "
                                     "0.05 or \"5 %\")")
@@ -724,7 +629,7 @@ def _check_section(ctx: _Ctx, value: Any, architecture: str | None = None) -> di
         models = t["models"]
         if not isinstance(models, list):
             raise ctx.error(where, f"models must be a list of estimate keys, got {models!r}")
-        out["models"] = [_choice(ctx, m, ESTIMATE_MODELS, where, "models") for m in models]
+        out["models"] = [choice(ctx, m, ESTIMATE_MODELS, where, "models") for m in models]
     if "properties" in t:
         props = t["properties"]
         if not isinstance(props, list) or not all(isinstance(p, str) for p in props):
@@ -775,10 +680,10 @@ def case_from_dict(
     """
     p = Path(path).resolve() if path is not None else None
     label = str(path) if path is not None else "<case>"
-    ctx = _Ctx(label, p.parent if p is not None else Path.cwd(), registry)
+    ctx = CaseContext(label, p.parent if p is not None else Path.cwd(), registry)
     if not isinstance(data, dict):
         raise CaseFileError(f"{label}: a case must be a TOML table")
-    _check_keys(ctx, data, _TOP_KEYS, "[top level]")
+    check_keys(ctx, data, _TOP_KEYS, "[top level]")
     name = data.get("name", p.stem if p is not None else "case")
     if not isinstance(name, str):
         raise ctx.error("[top level]", f"name must be text, got {name!r}")
