@@ -58,12 +58,12 @@ from micromech.homogenize import walpole as W
 from micromech.homogenize.eshelby import dilute_concentration, polarization
 from micromech.homogenize.orientation import ORIENTATIONS, average, check_orientation_name
 from micromech.results import ElasticConstants
+from micromech.shapes import INCLUSIONS
 
 __all__ = ["mori_tanaka", "INCLUSIONS", "ORIENTATIONS", "inclusion_aspect_ratio"]
 
 Array = NDArray[np.float64]
 
-INCLUSIONS: tuple[str, ...] = ("continuous", "spheroid", "sphere")
 
 RANDOM_SOURCE = "; orientation average of the aligned stiffness and thermal stress (Advani & " \
     "Tucker 1987; Tucker & Liang 1999)"

@@ -33,14 +33,13 @@ from numpy.typing import NDArray
 
 from micromech.errors import InputError
 from micromech.homogenize import walpole as W
+from micromech.shapes import ORIENTATIONS
 
 __all__ = ["ORIENTATIONS", "average", "average_3d", "average_planar", "basis_tensors",
            "check_orientation_name", "project"]
 
 Array = NDArray[np.float64]
 
-#: Fibre orientations: along axis 1, uniformly random in the 1-2 plane, uniformly random in space.
-ORIENTATIONS: tuple[str, ...] = ("aligned", "random_in_plane", "random_3d")
 
 
 def check_orientation_name(orientation: str) -> str:

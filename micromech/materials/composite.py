@@ -80,9 +80,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from micromech.errors import FractionError, InputError, InvalidMaterialError, suggest
-from micromech.homogenize.mori_tanaka import INCLUSIONS
-from micromech.homogenize.orientation import ORIENTATIONS
 from micromech.materials.models import Isotropic, Material, Orthotropic, TransverselyIsotropic
+from micromech.shapes import INCLUSIONS, ORIENTATIONS
 from micromech.tensors import at_index
 from micromech.units import parse_quantity
 
@@ -105,7 +104,7 @@ Inclusion = Literal["continuous", "spheroid", "sphere"]
 Arrangement = Literal["random", "square", "hexagonal"]
 Orientation = Literal["aligned", "random_in_plane", "random_3d"]
 
-# INCLUSIONS and ORIENTATIONS (imported above) are those the estimates implement.
+# INCLUSIONS and ORIENTATIONS (micromech.shapes) are those the estimates implement.
 ARRANGEMENTS: tuple[str, ...] = ("random", "square", "hexagonal")
 #: orientation -> inclusions it is allowed with (see the module table).
 ORIENTATION_INCLUSIONS: dict[str, tuple[str, ...]] = {
