@@ -212,27 +212,8 @@ def estimate_table(est: Estimates) -> str:
     return "\n".join(lines)
 
 
-def check_plot_path(path: str | Path, field: str = "path") -> Path:
-    """Check that a plot can be written to ``path`` before any work is done.
-
-    Parameters
-    ----------
-    path : str or Path
-        Image file to write; its suffix chooses the format (see :data:`PLOT_FORMATS`).
-    field : str
-        Name of the option or argument, for the message.
-
-    Returns
-    -------
-    Path
-        The path.
-
-    Raises
-    ------
-    InputError
-        If the suffix is not a supported format or the folder does not exist.
-    """
-    return check_image_path(path, field)
+#: Kept under its earlier name: the one image-path rule of every plot (report.files).
+check_plot_path = check_image_path
 
 
 def plot_estimates(
